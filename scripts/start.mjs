@@ -1,0 +1,117 @@
+#!/usr/bin/env node
+// `npm start`: bring up the whole demo on this machine, and take it down on Ctrl-C.
+// Uses only Node's built-ins until `npm ci` has run.
+import { existsSync, mkdirSync, readFileSync, rmSync, writeFileSync, openSync } from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { bold, fail, runMain, say } from './lib/say.mjs';
+import { DEBIAN_PACKAGES, ensureDebianPackages, ensureNodeModules } from './lib/system.mjs';
+
+const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
+const started = Date.now();
+const stops = [];
+let lockFile;
+
+async function cleanup() {
+  while (stops.length) await stops.pop()().catch(() => {});
+  if (lockFile) rmSync(lockFile, { force: true });
+}
+
+function takeLock(dir) {
+  lockFile = path.join(dir, 'start.pid');
+  if (existsSync(lockFile)) {
+    const pid = Number(readFileSync(lockFile, 'utf8'));
+    let running = false;
+    try {
+      process.kill(pid, 0);
+      running = pid !== process.pid;
+    } catch {}
+    if (running) {
+      lockFile = undefined;
+      fail(`Crestline is already running (npm start, pid ${pid}). Use that one, or stop it with Ctrl-C in its terminal (or: kill ${pid}).`);
+    }
+  }
+  writeFileSync(lockFile, String(process.pid));
+}
+
+async function main() {
+  ensureDebianPackages(DEBIAN_PACKAGES);
+  ensureNodeModules(root);
+  // Import the rest only now: they may rely on packages npm ci just installed.
+  const { ensureEnvFile, readEnvFile, databaseUrl } = await import('./lib/env.mjs');
+  const { portFree } = await import('./lib/net.mjs');
+  const { mariadbPaths, startMariaDb, provision } = await import('./lib/mariadb.mjs');
+  const { buildIfStale } = await import('./lib/build.mjs');
+  const { dbTask, startWebServer } = await import('./lib/stack.mjs');
+  const { DEMO_USERS, DEMO_PASSWORD } = await loadDemoUsers();
+
+  const envFile = path.join(root, '.env');
+  ensureEnvFile(envFile);
+  const env = readEnvFile(envFile);
+  const dataDir = path.resolve(root, env.DATA_DIR);
+  mkdirSync(dataDir, { recursive: true });
+  takeLock(dataDir);
+
+  const port = Number(env.PORT);
+  const dbPort = Number(env.DB_PORT);
+  const db = mariadbPaths(path.join(dataDir, 'db'));
+  const { stopStale } = await import('./lib/mariadb.mjs');
+  await stopStale(db);
+  if (!(await portFree(port, env.HOST))) fail(`port ${port} is already in use by another program; set PORT in .env to a free port, or stop that program.`);
+  if (!(await portFree(dbPort))) fail(`port ${dbPort} (the database) is already in use by another program; set DB_PORT in .env to a free port.`);
+
+  say(`starting the database on 127.0.0.1:${dbPort}…`);
+  const mariadb = await startMariaDb(db, { port: dbPort });
+  stops.push(mariadb.stop);
+  provision(db, { database: env.DB_NAME, user: env.DB_USER, password: env.DB_PASSWORD });
+
+  const appEnv = {
+    DATABASE_URL: databaseUrl(env),
+    AUTH_SECRET: env.AUTH_SECRET,
+    DATA_DIR: dataDir,
+    LOG_LEVEL: env.LOG_LEVEL || 'info',
+    SESSION_MAX_AGE_HOURS: env.SESSION_MAX_AGE_HOURS || '10',
+  };
+  dbTask(root, appEnv, 'migrate');
+  dbTask(root, appEnv, 'seed', '--if-empty');
+  buildIfStale(root);
+
+  mkdirSync(path.join(dataDir, 'log'), { recursive: true });
+  const appLog = path.join(dataDir, 'log', 'app.log');
+  const web = await startWebServer(root, appEnv, { host: env.HOST, port, logFile: openSync(appLog, 'a') });
+  stops.push(web.stop);
+  web.child.once('exit', (code) => {
+    if (shuttingDown) return;
+    say(`the web server stopped unexpectedly (exit ${code}); see ${appLog}. Shutting down.`);
+    void shutdown(1);
+  });
+
+  const seconds = ((Date.now() - started) / 1000).toFixed(1);
+  console.log('');
+  say(`${bold('Crestline is running')} at ${bold(web.url)}  (ready in ${seconds} s)`);
+  say(`demo sign-ins, all with the password ${bold(DEMO_PASSWORD)}:`);
+  for (const u of DEMO_USERS) say(`  ${u.role.padEnd(12)} ${u.email}`);
+  say(`logs: ${appLog} and ${db.log}`);
+  say('press Ctrl-C to stop everything this started.');
+}
+
+async function loadDemoUsers() {
+  const accounts = JSON.parse(readFileSync(path.join(root, 'seeders', 'demo-accounts.json'), 'utf8'));
+  return { DEMO_USERS: accounts.users, DEMO_PASSWORD: accounts.password };
+}
+
+let shuttingDown = false;
+async function shutdown(code = 0) {
+  if (shuttingDown) return;
+  shuttingDown = true;
+  say('stopping…');
+  await cleanup();
+  say('stopped.');
+  process.exit(code);
+}
+
+process.on('SIGINT', () => void shutdown(0));
+process.on('SIGTERM', () => void shutdown(0));
+process.on('SIGHUP', () => void shutdown(0));
+
+await runMain(main, cleanup);

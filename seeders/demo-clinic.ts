@@ -1,0 +1,171 @@
+import { Faker, en } from '@faker-js/faker';
+import type { Sequelize, Transaction } from 'sequelize';
+import { Exam, ExamType, Patient, Probe, Referrer, Room, Scanner, Setting, User } from '../src/db/models';
+import { hashPassword } from '../src/server/auth/password';
+import type { ExamStatus, Sex } from '../src/lib/exam-status';
+import type { Role } from '../src/lib/roles';
+import { accessionFrom, mrnFromNumber, uidFromUuid } from '../src/lib/identifiers';
+import { addDays, zonedDate, zonedTimeToUtc } from '../src/lib/time';
+import { CLINIC, DEMO_PASSWORD, DEMO_USERS, EXAM_TYPES, INDICATIONS, ROOMS } from './demo-clinic-data';
+
+/**
+ * The invented demo clinic: everything a person needs to try Crestline. Deterministic for a
+ * given day (seeded faker; exams placed relative to "today" in the clinic's time zone).
+ */
+export async function seedDemoClinic(sequelize: Sequelize, now = new Date()): Promise<void> {
+  const faker = new Faker({ locale: [en] });
+  faker.seed(20261202);
+  const passwordHash = await hashPassword(DEMO_PASSWORD);
+
+  await sequelize.transaction(async (transaction) => {
+    await Setting.create({ key: 'clinic', value: CLINIC }, { transaction });
+
+    const referrers = await seedReferrers(faker, transaction);
+    const users = new Map<string, User>();
+    for (const u of DEMO_USERS) {
+      const user = await User.create(
+        {
+          email: u.email,
+          displayName: u.displayName,
+          role: u.role as Role,
+          passwordHash,
+          referrerId: u.role === 'referrer' ? referrers[0]!.id : null,
+        },
+        { transaction },
+      );
+      users.set(u.key, user);
+    }
+
+    const types = new Map<string, ExamType>();
+    for (const t of EXAM_TYPES) types.set(t.code, await ExamType.create({ ...t }, { transaction }));
+
+    const rooms: Array<{ room: Room; scanner: Scanner; sonographer: User; examCodes: string[] }> = [];
+    for (const [i, r] of ROOMS.entries()) {
+      const room = await Room.create({ name: r.name }, { transaction });
+      const scanner = await Scanner.create({ roomId: room.id, name: r.scanner, aeTitle: r.aeTitle }, { transaction });
+      for (const [j, p] of r.probes.entries()) {
+        await Probe.create(
+          { ...p, scannerId: scanner.id, serialNumber: `FH-${p.kind.slice(0, 1).toUpperCase()}-${i + 1}${j + 1}07`, inServiceFrom: '2025-03-01', inServiceTo: null },
+          { transaction },
+        );
+      }
+      rooms.push({ room, scanner, sonographer: users.get(r.sonographer)!, examCodes: r.examCodes });
+    }
+
+    const patients = await seedPatients(faker, transaction);
+    await seedWeekOfExams(faker, { rooms, types, patients, referrers, now }, transaction);
+  });
+}
+
+async function seedReferrers(faker: Faker, transaction: Transaction): Promise<Referrer[]> {
+  const out: Referrer[] = [];
+  for (let i = 0; i < 10; i++) {
+    const first = faker.person.firstName();
+    const last = faker.person.lastName();
+    const practice = `${faker.location.street()} ${faker.helpers.arrayElement(['Family Practice', 'Medical Group', 'Endocrine Clinic', 'Heart Practice', 'Health Centre'])}`;
+    out.push(
+      await Referrer.create(
+        {
+          name: `Dr ${first} ${last}`,
+          practice,
+          email: `${first}.${last}.${i}@referrers.test`.toLowerCase().replace(/[^a-z0-9.@]/g, ''),
+          phone: `+1 555 01${String(10 + i).padStart(2, '0')} ${faker.string.numeric(3)}`,
+        },
+        { transaction },
+      ),
+    );
+  }
+  return out;
+}
+
+async function seedPatients(faker: Faker, transaction: Transaction): Promise<Patient[]> {
+  const out: Patient[] = [];
+  for (let i = 1; i <= 40; i++) {
+    // Mostly female/male; a few records with another or unrecorded sex, as real lists have.
+    const sex: Sex = i % 19 === 0 ? 'unknown' : i % 23 === 0 ? 'other' : i % 2 === 0 ? 'female' : 'male';
+    const given = faker.person.firstName(sex === 'female' ? 'female' : sex === 'male' ? 'male' : undefined);
+    const family = faker.person.lastName();
+    out.push(
+      await Patient.create(
+        {
+          mrn: mrnFromNumber(i),
+          familyName: family,
+          givenName: given,
+          birthDate: faker.date.between({ from: '1938-01-01', to: '2006-12-31' }).toISOString().slice(0, 10),
+          sex,
+          email: i % 5 === 0 ? null : `${given}.${family}${i}@patients.test`.toLowerCase().replace(/[^a-z0-9.@]/g, ''),
+          phone: `+1 555 02${String(i).padStart(2, '0')} ${faker.string.numeric(3)}`,
+          addressLine: faker.location.streetAddress(),
+          city: faker.helpers.arrayElement(['Alderbrook', 'Fernhollow', 'East Quillby', 'Marrow Bay']),
+          postalCode: faker.string.numeric(5),
+        },
+        { transaction },
+      ),
+    );
+  }
+  return out;
+}
+
+interface WeekInput {
+  rooms: Array<{ room: Room; scanner: Scanner; sonographer: User; examCodes: string[] }>;
+  types: Map<string, ExamType>;
+  patients: Patient[];
+  referrers: Referrer[];
+  now: Date;
+}
+
+/** Three days back to three days ahead, Monday to Saturday, each room filled with gaps. */
+async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transaction): Promise<void> {
+  const today = zonedDate(w.now, CLINIC.timeZone);
+  const counters = new Map<string, number>();
+  for (let offset = -3; offset <= 3; offset++) {
+    const day = addDays(today, offset);
+    const weekday = new Date(day + 'T12:00:00Z').getUTCDay();
+    if (weekday === 0) continue; // closed on Sundays
+    const closeAt = weekday === 6 ? 12 * 60 : 17 * 60;
+    for (const r of w.rooms) {
+      let minute = 8 * 60;
+      while (true) {
+        const type = w.types.get(faker.helpers.arrayElement(r.examCodes))!;
+        if (minute + type.durationMinutes > closeAt) break;
+        const start = zonedTimeToUtc(day, Math.floor(minute / 60), minute % 60, CLINIC.timeZone);
+        const n = (counters.get(day) ?? 0) + 1;
+        counters.set(day, n);
+        const status = statusFor(faker, start, type.durationMinutes, w.now);
+        await Exam.create(
+          {
+            accessionNumber: accessionFrom(day, n),
+            patientId: faker.helpers.arrayElement(w.patients).id,
+            examTypeId: type.id,
+            referrerId: faker.helpers.arrayElement(w.referrers.slice(0, faker.datatype.boolean(0.3) ? 1 : 10)).id,
+            roomId: r.room.id,
+            scannerId: r.scanner.id,
+            sonographerId: r.sonographer.id,
+            scheduledStart: start,
+            durationMinutes: type.durationMinutes,
+            status,
+            priority: faker.datatype.boolean(0.1) ? 'urgent' : 'routine',
+            indication: faker.helpers.arrayElement(INDICATIONS[type.code] ?? ['Clinical assessment']),
+            studyInstanceUid: uidFromUuid(faker.string.uuid()),
+            priceCents: type.selfPayPriceCents,
+            currency: type.currency,
+            cancelReason: status === 'cancelled' ? 'Patient asked to rebook' : null,
+          },
+          { transaction },
+        );
+        // Leave a gap now and then, so the schedule shows free time.
+        minute += type.durationMinutes + (faker.datatype.boolean(0.3) ? 15 * faker.number.int({ min: 1, max: 4 }) : 0);
+      }
+    }
+  }
+}
+
+function statusFor(faker: Faker, start: Date, minutes: number, now: Date): ExamStatus {
+  const end = new Date(start.getTime() + minutes * 60_000);
+  if (start > now) return faker.datatype.boolean(0.05) ? 'cancelled' : 'booked';
+  if (end > now) return 'in-progress';
+  const roll = faker.number.int({ min: 1, max: 100 });
+  if (roll <= 6) return 'noshow';
+  if (roll <= 10) return 'cancelled';
+  return 'completed';
+}

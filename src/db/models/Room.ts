@@ -1,0 +1,29 @@
+import {
+  DataTypes,
+  Model,
+  type CreationOptional,
+  type InferAttributes,
+  type InferCreationAttributes,
+  type Sequelize,
+} from 'sequelize';
+
+export class Room extends Model<InferAttributes<Room>, InferCreationAttributes<Room>> {
+  declare id: CreationOptional<number>;
+  declare name: string;
+  declare active: CreationOptional<boolean>;
+  declare createdAt: CreationOptional<Date>;
+  declare updatedAt: CreationOptional<Date>;
+
+  static initModel(sequelize: Sequelize): void {
+    Room.init(
+      {
+        id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
+        name: { type: DataTypes.STRING(80), allowNull: false, unique: true },
+        active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+        createdAt: DataTypes.DATE,
+        updatedAt: DataTypes.DATE,
+      },
+      { sequelize, tableName: 'rooms', modelName: 'Room' },
+    );
+  }
+}

@@ -1,0 +1,31 @@
+import type { Sequelize } from 'sequelize';
+import { AuditEvent } from './AuditEvent';
+import { Exam } from './Exam';
+import { ExamType } from './ExamType';
+import { Patient } from './Patient';
+import { Probe } from './Probe';
+import { Referrer } from './Referrer';
+import { Room } from './Room';
+import { Scanner } from './Scanner';
+import { Setting } from './Setting';
+import { User } from './User';
+
+export { AuditEvent, Exam, ExamType, Patient, Probe, Referrer, Room, Scanner, Setting, User };
+
+/** Registers every model and association on one Sequelize instance. */
+export function initModels(sequelize: Sequelize): void {
+  for (const model of [AuditEvent, Exam, ExamType, Patient, Probe, Referrer, Room, Scanner, Setting, User]) {
+    model.initModel(sequelize);
+  }
+  User.belongsTo(Referrer, { foreignKey: 'referrerId', as: 'referrer' });
+  Scanner.belongsTo(Room, { foreignKey: 'roomId', as: 'room' });
+  Room.hasMany(Scanner, { foreignKey: 'roomId', as: 'scanners' });
+  Probe.belongsTo(Scanner, { foreignKey: 'scannerId', as: 'scanner' });
+  Exam.belongsTo(Patient, { foreignKey: 'patientId', as: 'patient' });
+  Exam.belongsTo(ExamType, { foreignKey: 'examTypeId', as: 'examType' });
+  Exam.belongsTo(Referrer, { foreignKey: 'referrerId', as: 'referrer' });
+  Exam.belongsTo(Room, { foreignKey: 'roomId', as: 'room' });
+  Exam.belongsTo(Scanner, { foreignKey: 'scannerId', as: 'scanner' });
+  Exam.belongsTo(User, { foreignKey: 'sonographerId', as: 'sonographer' });
+  Patient.hasMany(Exam, { foreignKey: 'patientId', as: 'exams' });
+}

@@ -1,0 +1,5 @@
+export interface ReferrerChoice {
+  id: number;
+  name: string;
+  practice: string;
+}

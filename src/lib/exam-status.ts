@@ -1,0 +1,45 @@
+/**
+ * Exam (appointment) statuses after FHIR's Appointment vocabulary, and the moves allowed
+ * between them (DESIGN.md, exam lifecycle).
+ */
+export const EXAM_STATUSES = [
+  'booked',
+  'arrived',
+  'in-progress',
+  'completed',
+  'cancelled',
+  'noshow',
+] as const;
+export type ExamStatus = (typeof EXAM_STATUSES)[number];
+
+export const EXAM_STATUS_LABELS: Record<ExamStatus, string> = {
+  booked: 'Booked',
+  arrived: 'Arrived',
+  'in-progress': 'Scanning',
+  completed: 'Scanned',
+  cancelled: 'Cancelled',
+  noshow: 'Did not attend',
+};
+
+const MOVES: Record<ExamStatus, readonly ExamStatus[]> = {
+  booked: ['arrived', 'cancelled', 'noshow'],
+  arrived: ['in-progress', 'cancelled', 'noshow'],
+  'in-progress': ['completed', 'arrived'],
+  completed: [],
+  cancelled: [],
+  noshow: [],
+};
+
+/** Whether an exam may move from `from` to `to`, e.g. canMoveExam('booked', 'arrived') → true. */
+export function canMoveExam(from: ExamStatus, to: ExamStatus): boolean {
+  return MOVES[from].includes(to);
+}
+
+export const PRIORITIES = ['routine', 'urgent'] as const;
+export type Priority = (typeof PRIORITIES)[number];
+
+export const PROBE_KINDS = ['linear', 'curvilinear', 'phased'] as const;
+export type ProbeKind = (typeof PROBE_KINDS)[number];
+
+export const SEXES = ['female', 'male', 'other', 'unknown'] as const;
+export type Sex = (typeof SEXES)[number];

@@ -1,0 +1,23 @@
+import type { Role } from './roles';
+
+export interface NavItem {
+  href: string;
+  label: string;
+  roles: readonly Role[];
+}
+
+/**
+ * The navigation rail. The server still guards each page; this only hides what a role
+ * cannot open. Later features add their entries here.
+ */
+export const NAV_ITEMS: readonly NavItem[] = [
+  { href: '/', label: 'Today', roles: ['admin', 'frontdesk', 'sonographer', 'radiologist', 'referrer'] },
+  { href: '/admin/users', label: 'Staff & access', roles: ['admin'] },
+  { href: '/admin/audit', label: 'Audit trail', roles: ['admin'] },
+  { href: '/account', label: 'My account', roles: ['admin', 'frontdesk', 'sonographer', 'radiologist', 'referrer'] },
+];
+
+/** The entries a role sees, in order. */
+export function navFor(role: Role): NavItem[] {
+  return NAV_ITEMS.filter((item) => item.roles.includes(role));
+}

@@ -1,0 +1,35 @@
+/** Error codes of the one error shape `{ error: { code, message, fields? } }` (STYLE.md). */
+export type ErrorCode =
+  | 'BAD_REQUEST'
+  | 'BAD_JSON'
+  | 'VALIDATION'
+  | 'UNAUTHENTICATED'
+  | 'FORBIDDEN'
+  | 'NOT_FOUND'
+  | 'CONFLICT'
+  | 'STALE'
+  | 'RULE'
+  | 'PAYLOAD_TOO_LARGE'
+  | 'UNSUPPORTED_MEDIA_TYPE'
+  | 'DEPENDENCY_DOWN'
+  | 'INTERNAL';
+
+/** Thrown by services and routes; endpoint() turns it into a JSON answer. */
+export class HttpError extends Error {
+  constructor(
+    readonly status: number,
+    readonly code: ErrorCode,
+    message: string,
+    readonly fields?: Record<string, string>,
+  ) {
+    super(message);
+    this.name = 'HttpError';
+  }
+}
+
+export const notFound = (what: string) => new HttpError(404, 'NOT_FOUND', `${what} was not found.`);
+export const conflict = (message: string) => new HttpError(409, 'CONFLICT', message);
+export const stale = (what: string) =>
+  new HttpError(409, 'STALE', `Someone else changed this ${what} after you opened it. Reload to see their change, then try again.`);
+export const ruleBroken = (message: string, fields?: Record<string, string>) =>
+  new HttpError(422, 'RULE', message, fields);

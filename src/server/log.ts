@@ -1,0 +1,14 @@
+import pino from 'pino';
+
+/**
+ * The one structured logger. Log identifiers (user id, exam id, accession number), never
+ * patient names, birth dates or report text; the redact list is a second line of defence.
+ */
+export const log = pino({
+  level: process.env.LOG_LEVEL ?? 'info',
+  base: { app: 'crestline' },
+  redact: {
+    paths: ['password', '*.password', 'email', '*.email', 'name', '*.name', 'headers.cookie'],
+    censor: '[redacted]',
+  },
+});
