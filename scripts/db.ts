@@ -1,12 +1,14 @@
 /**
  * Database chores for the start and test scripts and for developers:
  *   node --import tsx scripts/db.ts migrate | rollback [all] | status | seed [--if-empty]
+ *   ADMIN_PASSWORD=… node --import tsx scripts/db.ts create-admin <email> <full name>
  * Reads DATABASE_URL from the environment (the start script sets it from .env).
  */
 import { createSequelize } from '../src/db/connection';
 import { migrator } from '../src/db/migrator';
 import { initModels, User } from '../src/db/models';
-import { seedDemoClinic } from '../seeders/demo-clinic';
+import { hashPassword } from '../src/server/auth/password';
+import { createUserSchema } from '../src/lib/schemas/users';
 
 async function main(): Promise<number> {
   const [command, arg] = process.argv.slice(2);
@@ -40,12 +42,31 @@ async function main(): Promise<number> {
           console.log('demo clinic already present; not seeding again');
           return 0;
         }
+        // Loaded only here: the demo seed needs faker, a development dependency.
+        const { seedDemoClinic } = await import('../seeders/demo-clinic');
         await seedDemoClinic(sequelize);
         console.log('seeded the demo clinic');
         return 0;
       }
+      case 'create-admin': {
+        // The first manager account of a production install (no demo seed there).
+        const parsed = createUserSchema.safeParse({
+          email: arg,
+          displayName: process.argv.slice(4).join(' '),
+          role: 'admin',
+          password: process.env.ADMIN_PASSWORD ?? '',
+        });
+        if (!parsed.success) {
+          console.error('create-admin: ' + parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; '));
+          return 2;
+        }
+        const { email, displayName, password } = parsed.data;
+        await User.create({ email, displayName, role: 'admin', passwordHash: await hashPassword(password), referrerId: null });
+        console.log(`created manager account ${email}`);
+        return 0;
+      }
       default:
-        console.error('usage: scripts/db.ts migrate | rollback [all] | status | seed [--if-empty]');
+        console.error('usage: scripts/db.ts migrate | rollback [all] | status | seed [--if-empty] | create-admin <email> <name>');
         return 2;
     }
   } finally {

@@ -27,7 +27,7 @@ export function migrator(sequelize: Sequelize, root = process.cwd()) {
         };
       },
     },
-    storage: new SequelizeStorage({ sequelize, modelName: 'SequelizeMeta' }),
+    storage: new SequelizeStorage({ sequelize, modelName: 'SequelizeMeta', tableName: 'SequelizeMeta' }),
     context: sequelize.getQueryInterface(),
     logger: undefined,
   });

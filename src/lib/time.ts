@@ -65,7 +65,11 @@ export function zonedTimeToUtc(isoDate: string, hour: number, minute: number, ti
   const wall = Date.UTC(y, m - 1, d, hour, minute);
   const first = wall - zoneOffsetMinutes(new Date(wall), timeZone) * 60_000;
   const second = wall - zoneOffsetMinutes(new Date(first), timeZone) * 60_000;
-  return new Date(Math.min(first, second));
+  const showsWall = (t: number) => t + zoneOffsetMinutes(new Date(t), timeZone) * 60_000 === wall;
+  const valid = [first, second].filter(showsWall);
+  // Overlap: both candidates are real, take the earlier. Gap: neither is, take the later,
+  // which reads as the same clock time pushed forward by the size of the gap.
+  return new Date(valid.length ? Math.min(...valid) : Math.max(first, second));
 }
 
 /** [start, end) of a clinic day as UTC instants. */
