@@ -6,14 +6,14 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { bold, fail, runMain, say } from './lib/say.mjs';
 import { DEBIAN_PACKAGES, ensureDebianPackages, ensureNodeModules } from './lib/system.mjs';
+import { stopAll } from './lib/children.mjs';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const started = Date.now();
-const stops = [];
 let lockFile;
 
 async function cleanup() {
-  while (stops.length) await stops.pop()().catch(() => {});
+  await stopAll().catch(() => {});
   if (lockFile) rmSync(lockFile, { force: true });
 }
 
@@ -61,8 +61,7 @@ async function main() {
   if (!(await portFree(dbPort))) fail(`port ${dbPort} (the database) is already in use by another program; set DB_PORT in .env to a free port.`);
 
   say(`starting the database on 127.0.0.1:${dbPort}…`);
-  const mariadb = await startMariaDb(db, { port: dbPort });
-  stops.push(mariadb.stop);
+  await startMariaDb(db, { port: dbPort });
   provision(db, { database: env.DB_NAME, user: env.DB_USER, password: env.DB_PASSWORD });
 
   const appEnv = {
@@ -78,8 +77,7 @@ async function main() {
 
   mkdirSync(path.join(dataDir, 'log'), { recursive: true });
   const appLog = path.join(dataDir, 'log', 'app.log');
-  const web = await startWebServer(root, appEnv, { host: env.HOST, port, logFile: openSync(appLog, 'a') });
-  stops.push(web.stop);
+  const web = await startWebServer(root, appEnv, { host: env.HOST, port, logFile: openSync(appLog, 'a'), logPath: appLog });
   web.child.once('exit', (code) => {
     if (shuttingDown) return;
     say(`the web server stopped unexpectedly (exit ${code}); see ${appLog}. Shutting down.`);

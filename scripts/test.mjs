@@ -11,17 +11,17 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { bold, runMain, say, warn } from './lib/say.mjs';
 import { DEBIAN_PACKAGES, TEST_DEBIAN_PACKAGES, ensureDebianPackages, ensureNodeModules } from './lib/system.mjs';
+import { stopAll } from './lib/children.mjs';
 
 const root = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
 const SUITES = ['unit', 'check', 'integration', 'e2e'];
 const asked = process.argv.slice(2).filter((a) => SUITES.includes(a));
 const unknown = process.argv.slice(2).filter((a) => !SUITES.includes(a));
 const run = new Set(asked.length ? asked : SUITES);
-const stops = [];
 const timings = [];
 
 async function cleanup() {
-  while (stops.length) await stops.pop()().catch(() => {});
+  await stopAll().catch(() => {});
 }
 
 function step(name, command, args, env = {}) {
@@ -54,8 +54,7 @@ async function main() {
     const db = mariadbPaths(path.join(dir, 'db'));
     const dbPort = await freePort();
     const t0 = Date.now();
-    const mariadb = await startMariaDb(db, { port: dbPort, fresh: true });
-    stops.push(mariadb.stop);
+    await startMariaDb(db, { port: dbPort, fresh: true });
     const password = randomBytes(12).toString('base64url');
     // The test user may create sibling databases (crestline_test_*) for the migration test.
     provision(db, { database: 'crestline_test', user: 'crestline_test', password, grantPattern: 'crestline\\_test%' });
@@ -74,8 +73,7 @@ async function main() {
     buildIfStale(root);
     mkdirSync(dir, { recursive: true });
     const appLog = path.join(dir, 'app.log');
-    const web = await startWebServer(root, env, { host: '127.0.0.1', port: await freePort(), logFile: openSync(appLog, 'w') });
-    stops.push(web.stop);
+    const web = await startWebServer(root, env, { host: '127.0.0.1', port: await freePort(), logFile: openSync(appLog, 'w'), logPath: appLog });
     timings.push({ name: 'build and start app', seconds: (Date.now() - t1) / 1000, ok: true });
     const testEnv = { ...env, APP_URL: web.url, APP_LOG: appLog };
 

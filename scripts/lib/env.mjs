@@ -47,7 +47,7 @@ export function readEnvFile(file) {
   const values = parseEnv(readFileSync(file, 'utf8'));
   const missing = REQUIRED_KEYS.filter((k) => !values[k] || !String(values[k]).trim());
   if (missing.length) {
-    fail(`${file} is missing ${missing.join(', ')}. Add them (see README, Configuration), or delete ${file} to have it written afresh.`);
+    fail(`${file} has no value for ${missing.join(', ')}. Add ${missing.length > 1 ? 'them' : 'it'} (see README, Configuration), or delete ${file} to have it written afresh.`);
   }
   for (const k of ['PORT', 'DB_PORT']) {
     const n = Number(values[k]);

@@ -2,6 +2,7 @@ import { spawn, spawnSync } from 'node:child_process';
 import { existsSync, mkdirSync, readFileSync, rmSync } from 'node:fs';
 import path from 'node:path';
 import { fail, say } from './say.mjs';
+import { stopChild, track } from './children.mjs';
 
 /**
  * A private MariaDB server: own data dir, socket and pid file under `dir`, loopback only.
@@ -104,6 +105,7 @@ export async function startMariaDb(p, { port, fresh = false }) {
     ],
     { stdio: 'ignore', detached: false },
   );
+  const tracked = track(child, 20_000);
   let exited = false;
   child.once('exit', () => {
     exited = true;
@@ -120,18 +122,7 @@ export async function startMariaDb(p, { port, fresh = false }) {
     fail(`MariaDB did not start; its log is ${p.log}${tail ? ` — last lines: ${tail}` : ''}`);
   }
 
-  return {
-    pid: child.pid,
-    stop: () =>
-      new Promise((resolve) => {
-        if (exited) return resolve();
-        child.once('exit', () => resolve());
-        child.kill('SIGTERM');
-        setTimeout(() => {
-          if (!exited) child.kill('SIGKILL');
-        }, 20_000).unref();
-      }),
-  };
+  return { pid: child.pid, stop: () => stopChild(tracked) };
 }
 
 /** Runs SQL as the database's root user over the socket. */

@@ -1,6 +1,7 @@
 import { spawn, spawnSync } from 'node:child_process';
 import { fail, say } from './say.mjs';
 import { waitForHttp } from './net.mjs';
+import { stopChild, track } from './children.mjs';
 
 /** Runs `node --import tsx scripts/db.ts …` with the given environment; fails on error. */
 export function dbTask(root, env, ...args) {
@@ -18,12 +19,13 @@ export function dbTask(root, env, ...args) {
  * Starts the built server (dist/server/entry.mjs) and waits for /api/health.
  * Returns { url, child, stop() }.
  */
-export async function startWebServer(root, env, { host, port, logFile }) {
+export async function startWebServer(root, env, { host, port, logFile, logPath }) {
   const child = spawn(process.execPath, ['dist/server/entry.mjs'], {
     cwd: root,
     env: { ...process.env, ...env, HOST: host, PORT: String(port), NODE_ENV: 'production' },
     stdio: ['ignore', logFile ?? 'inherit', logFile ?? 'inherit'],
   });
+  const tracked = track(child);
   let exited = false;
   child.once('exit', () => {
     exited = true;
@@ -32,17 +34,7 @@ export async function startWebServer(root, env, { host, port, logFile }) {
   const state = await waitForHttp(`${url}/api/health`, { timeoutMs: 40_000, alive: () => !exited });
   if (state !== 'up') {
     if (!exited) child.kill('SIGTERM');
-    fail(state === 'died' ? 'the web server stopped during start-up; see the messages above.' : 'the web server did not answer /api/health within 40 s.');
+    fail(`the web server ${state === 'died' ? 'stopped during start-up' : 'did not answer /api/health within 40 s'}; see ${logPath ?? 'the messages above'}.`);
   }
-  return {
-    url,
-    child,
-    stop: () =>
-      new Promise((resolve) => {
-        if (exited) return resolve();
-        child.once('exit', () => resolve());
-        child.kill('SIGTERM');
-        setTimeout(() => !exited && child.kill('SIGKILL'), 10_000).unref();
-      }),
-  };
+  return { url, child, stop: () => stopChild(tracked) };
 }
