@@ -8,6 +8,7 @@ import {
 } from '@tanstack/react-table';
 import { useMemo, useState } from 'react';
 import { queryClient } from '../lib/query-client';
+import { zonedClock, zonedDate } from '../lib/time';
 import { usersQuery } from '../lib/queries/users';
 import { ROLES, ROLE_LABELS, type Role } from '../lib/roles';
 import type { UserListQuery, UserRow } from '../lib/schemas/users';
@@ -18,6 +19,8 @@ import type { ReferrerChoice } from './users/types';
 interface Props {
   referrers: ReferrerChoice[];
   currentUserId: number;
+  /** The clinic's time zone, for showing sign-in times as the clinic reads them. */
+  timeZone: string;
 }
 
 const col = createColumnHelper<UserRow>();
@@ -29,7 +32,7 @@ function StatusPill({ row }: { row: UserRow }) {
   return <span className="rounded-full bg-crest-50 px-2 py-0.5 text-xs font-semibold text-crest-800">Active</span>;
 }
 
-function UsersTable({ referrers, currentUserId }: Props) {
+function UsersTable({ referrers, currentUserId, timeZone }: Props) {
   const [page, setPage] = useState(1);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'displayName', desc: false }]);
   const [search, setSearch] = useState('');
@@ -65,7 +68,10 @@ function UsersTable({ referrers, currentUserId }: Props) {
       col.display({ id: 'status', header: 'Status', cell: (c) => <StatusPill row={c.row.original} /> }),
       col.accessor('lastSignInAt', {
         header: 'Last sign-in',
-        cell: (c) => (c.getValue() ? new Date(c.getValue()!).toLocaleString() : '—'),
+        cell: (c) => {
+          const at = c.getValue();
+          return at ? `${zonedDate(new Date(at), timeZone)} ${zonedClock(new Date(at), timeZone)}` : '—';
+        },
       }),
       col.display({
         id: 'actions',
@@ -77,7 +83,7 @@ function UsersTable({ referrers, currentUserId }: Props) {
         ),
       }),
     ],
-    [],
+    [timeZone],
   );
 
   const table = useReactTable({
