@@ -1,0 +1,22 @@
+import { DEFAULT_PROBE } from '../../probes';
+import type { TemplateDef } from '../types';
+import { deriveThyroid } from './derive';
+import { THYROID_DERIVED, THYROID_NODULES, THYROID_SECTIONS } from './fields';
+import { thyroidFindings, thyroidUrgent } from './findings';
+
+export const THYROID_TEMPLATE: TemplateDef = {
+  id: 'thyroid',
+  version: '1.0.0',
+  title: 'Thyroid ultrasound',
+  defaultProbe: DEFAULT_PROBE.thyroid,
+  sections: THYROID_SECTIONS,
+  derived: THYROID_DERIVED,
+  referenceChecks: [
+    { valueCode: 'thyroidVolumeMl', referenceCode: 'thyroid-volume' },
+    { valueCode: 'isthmusThicknessMm', referenceCode: 'isthmus-thickness' },
+  ],
+  nodules: THYROID_NODULES,
+  derive: deriveThyroid,
+  findings: thyroidFindings,
+  urgent: thyroidUrgent,
+};
