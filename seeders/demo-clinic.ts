@@ -123,11 +123,13 @@ async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transact
     const weekday = new Date(day + 'T12:00:00Z').getUTCDay();
     if (weekday === 0) continue; // closed on Sundays
     const closeAt = weekday === 6 ? 12 * 60 : 17 * 60;
+    // Each patient comes at most once a day.
+    const queue = faker.helpers.shuffle([...w.patients]);
     for (const r of w.rooms) {
       let minute = 8 * 60;
       while (true) {
         const type = w.types.get(faker.helpers.arrayElement(r.examCodes))!;
-        if (minute + type.durationMinutes > closeAt) break;
+        if (minute + type.durationMinutes > closeAt || queue.length === 0) break;
         const start = zonedTimeToUtc(day, Math.floor(minute / 60), minute % 60, CLINIC.timeZone);
         const n = (counters.get(day) ?? 0) + 1;
         counters.set(day, n);
@@ -135,7 +137,7 @@ async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transact
         await Exam.create(
           {
             accessionNumber: accessionFrom(day, n),
-            patientId: faker.helpers.arrayElement(w.patients).id,
+            patientId: queue.pop()!.id,
             examTypeId: type.id,
             referrerId: faker.helpers.arrayElement(w.referrers.slice(0, faker.datatype.boolean(0.3) ? 1 : 10)).id,
             roomId: r.room.id,
