@@ -9,7 +9,7 @@ module.exports = {
       created_at: { type: Sequelize.DATE, allowNull: false },
       updated_at: { type: Sequelize.DATE, allowNull: false },
     };
-    const probeKind = Sequelize.ENUM('linear', 'curvilinear', 'phased');
+    const probeKind = Sequelize.ENUM('linear', 'curvilinear', 'phased-array');
 
     await queryInterface.createTable(
       'exam_types',

@@ -1,6 +1,6 @@
 /**
  * Database chores for the start and test scripts and for developers:
- *   node --import tsx scripts/db.ts migrate | rollback [all] | status | seed [--if-empty]
+ *   node --import tsx scripts/db.ts migrate | rollback [all] | status | seed [--if-empty] | reference
  *   ADMIN_PASSWORD=… node --import tsx scripts/db.ts create-admin <email> <full name>
  * Reads DATABASE_URL from the environment (the start script sets it from .env).
  */
@@ -37,6 +37,11 @@ async function main(): Promise<number> {
         console.log(`applied: ${done.length}, pending: ${pending.map((m) => m.name).join(', ') || 'none'}`);
         return 0;
       }
+      case 'reference': {
+        const { seedReferenceRanges } = await import('../seeders/reference-ranges');
+        console.log(await seedReferenceRanges());
+        return 0;
+      }
       case 'seed': {
         if (arg === '--if-empty' && (await User.count()) > 0) {
           console.log('demo clinic already present; not seeding again');
@@ -66,7 +71,7 @@ async function main(): Promise<number> {
         return 0;
       }
       default:
-        console.error('usage: scripts/db.ts migrate | rollback [all] | status | seed [--if-empty] | create-admin <email> <name>');
+        console.error('usage: scripts/db.ts migrate | rollback [all] | status | seed [--if-empty] | reference | create-admin <email> <name>');
         return 2;
     }
   } finally {

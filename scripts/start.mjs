@@ -72,6 +72,7 @@ async function main() {
     SESSION_MAX_AGE_HOURS: env.SESSION_MAX_AGE_HOURS || '10',
   };
   dbTask(root, appEnv, 'migrate');
+  dbTask(root, appEnv, 'reference');
   dbTask(root, appEnv, 'seed', '--if-empty');
   buildIfStale(root);
 

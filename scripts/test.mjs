@@ -66,6 +66,7 @@ async function main() {
       LOG_LEVEL: 'warn',
     };
     dbTask(root, env, 'migrate');
+    dbTask(root, env, 'reference');
     dbTask(root, env, 'seed');
     timings.push({ name: 'fresh test database', seconds: (Date.now() - t0) / 1000, ok: true });
 

@@ -43,7 +43,7 @@ export const EXAM_TYPES = [
     name: 'Echocardiogram, transthoracic',
     templateId: 'echo',
     durationMinutes: 60,
-    probeKind: 'phased' as const,
+    probeKind: 'phased-array' as const,
     preparationText: 'No preparation is needed. Take your usual medicines. Please bring a list of them.',
     selfPayPriceCents: 42_000,
     depositCents: 10_000,
@@ -81,7 +81,7 @@ export const ROOMS = [
     sonographer: 'sono3',
     examCodes: ['echo-tte'],
     probes: [
-      { kind: 'phased' as const, modelLabel: 'Phased 1–5', minFrequencyMhz: 1, maxFrequencyMhz: 5 },
+      { kind: 'phased-array' as const, modelLabel: 'Phased 1–5', minFrequencyMhz: 1, maxFrequencyMhz: 5 },
       { kind: 'curvilinear' as const, modelLabel: 'Curved 1–6 (cardiac room)', minFrequencyMhz: 1, maxFrequencyMhz: 6 },
     ],
   },

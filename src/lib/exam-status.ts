@@ -1,3 +1,5 @@
+import type { ProbeKind } from './clinical/types';
+
 /**
  * Exam (appointment) statuses after FHIR's Appointment vocabulary, and the moves allowed
  * between them (DESIGN.md, exam lifecycle).
@@ -38,8 +40,9 @@ export function canMoveExam(from: ExamStatus, to: ExamStatus): boolean {
 export const PRIORITIES = ['routine', 'urgent'] as const;
 export type Priority = (typeof PRIORITIES)[number];
 
-export const PROBE_KINDS = ['linear', 'curvilinear', 'phased'] as const;
-export type ProbeKind = (typeof PROBE_KINDS)[number];
+/** Probe kinds; the same names the clinical engine uses (its PROBE_KINDS holds their bands). */
+export const PROBE_KIND_CODES = ['linear', 'curvilinear', 'phased-array'] as const satisfies readonly ProbeKind[];
+export type { ProbeKind };
 
 export const SEXES = ['female', 'male', 'other', 'unknown'] as const;
 export type Sex = (typeof SEXES)[number];

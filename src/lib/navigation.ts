@@ -14,6 +14,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: '/', label: 'Today', roles: ['admin', 'frontdesk', 'sonographer', 'radiologist', 'referrer'] },
   { href: '/admin/users', label: 'Staff & access', roles: ['admin'] },
   { href: '/admin/audit', label: 'Audit trail', roles: ['admin'] },
+  { href: '/admin/reference-ranges', label: 'Reference ranges', roles: ['admin', 'radiologist', 'sonographer'] },
   { href: '/account', label: 'My account', roles: ['admin', 'frontdesk', 'sonographer', 'radiologist', 'referrer'] },
 ];
 

@@ -3,11 +3,11 @@ import { demo, signInAs } from './support';
 
 // What each role sees in the navigation rail (src/lib/navigation.ts).
 const EXPECTED_NAV: Record<string, { role: string; sees: string[]; doesNotSee: string[] }> = {
-  admin: { role: 'Clinic manager', sees: ['Today', 'Staff & access', 'Audit trail', 'My account'], doesNotSee: [] },
-  desk: { role: 'Front desk', sees: ['Today', 'My account'], doesNotSee: ['Staff & access', 'Audit trail'] },
-  sono1: { role: 'Sonographer', sees: ['Today', 'My account'], doesNotSee: ['Staff & access', 'Audit trail'] },
-  reader: { role: 'Reading physician', sees: ['Today', 'My account'], doesNotSee: ['Staff & access', 'Audit trail'] },
-  referrer: { role: 'Referring clinician', sees: ['Today', 'My account'], doesNotSee: ['Staff & access', 'Audit trail'] },
+  admin: { role: 'Clinic manager', sees: ['Today', 'Staff & access', 'Audit trail', 'Reference ranges', 'My account'], doesNotSee: [] },
+  desk: { role: 'Front desk', sees: ['Today', 'My account'], doesNotSee: ['Staff & access', 'Audit trail', 'Reference ranges'] },
+  sono1: { role: 'Sonographer', sees: ['Today', 'Reference ranges', 'My account'], doesNotSee: ['Staff & access', 'Audit trail'] },
+  reader: { role: 'Reading physician', sees: ['Today', 'Reference ranges', 'My account'], doesNotSee: ['Staff & access', 'Audit trail'] },
+  referrer: { role: 'Referring clinician', sees: ['Today', 'My account'], doesNotSee: ['Staff & access', 'Audit trail', 'Reference ranges'] },
 };
 
 for (const [key, expected] of Object.entries(EXPECTED_NAV)) {
@@ -65,4 +65,15 @@ test('signing out ends the session', async ({ page }) => {
   await expect(page.getByText('You have signed out.')).toBeVisible();
   await page.goto('/account');
   await expect(page).toHaveURL(/\/signin/);
+});
+
+test('a reading physician looks up a reference range with its source and version', async ({ page }) => {
+  await signInAs(page, demo('reader').email);
+  await page.getByRole('navigation', { name: 'Main', exact: true }).getByRole('link', { name: 'Reference ranges' }).click();
+  await page.getByLabel('Measurement').fill('lvmi');
+  await page.getByRole('button', { name: 'Show' }).click();
+  const women = page.getByRole('row', { name: /LV mass index.*Women/ });
+  await expect(women).toContainText('43–95');
+  await expect(women).toContainText('Lang RM et al.');
+  await expect(page.getByText(/Reference set crestline-ref-1\.0\.0/)).toBeVisible();
 });

@@ -6,7 +6,7 @@ import {
   type InferCreationAttributes,
   type Sequelize,
 } from 'sequelize';
-import { PROBE_KINDS, type ProbeKind } from '../../lib/exam-status';
+import { PROBE_KIND_CODES, type ProbeKind } from '../../lib/exam-status';
 
 export class ExamType extends Model<InferAttributes<ExamType>, InferCreationAttributes<ExamType>> {
   declare id: CreationOptional<number>;
@@ -32,7 +32,7 @@ export class ExamType extends Model<InferAttributes<ExamType>, InferCreationAttr
         name: { type: DataTypes.STRING(120), allowNull: false },
         templateId: { type: DataTypes.STRING(40), allowNull: false },
         durationMinutes: { type: DataTypes.INTEGER, allowNull: false },
-        probeKind: { type: DataTypes.ENUM(...PROBE_KINDS), allowNull: false },
+        probeKind: { type: DataTypes.ENUM(...PROBE_KIND_CODES), allowNull: false },
         preparationText: { type: DataTypes.TEXT, allowNull: false },
         selfPayPriceCents: { type: DataTypes.INTEGER, allowNull: false },
         depositCents: { type: DataTypes.INTEGER, allowNull: false },

@@ -7,7 +7,7 @@ import {
   type InferCreationAttributes,
   type Sequelize,
 } from 'sequelize';
-import { PROBE_KINDS, type ProbeKind } from '../../lib/exam-status';
+import { PROBE_KIND_CODES, type ProbeKind } from '../../lib/exam-status';
 
 export class Probe extends Model<InferAttributes<Probe>, InferCreationAttributes<Probe>> {
   declare id: CreationOptional<number>;
@@ -29,7 +29,7 @@ export class Probe extends Model<InferAttributes<Probe>, InferCreationAttributes
       {
         id: { type: DataTypes.INTEGER, autoIncrement: true, primaryKey: true },
         scannerId: { type: DataTypes.INTEGER, allowNull: true },
-        kind: { type: DataTypes.ENUM(...PROBE_KINDS), allowNull: false },
+        kind: { type: DataTypes.ENUM(...PROBE_KIND_CODES), allowNull: false },
         modelLabel: { type: DataTypes.STRING(80), allowNull: false },
         serialNumber: { type: DataTypes.STRING(60), allowNull: false, unique: true },
         // DECIMAL comes back from the driver as a string; FLOAT keeps 1-decimal MHz exact enough.
