@@ -2,6 +2,7 @@ import { Faker, en } from '@faker-js/faker';
 import type { Sequelize, Transaction } from 'sequelize';
 import { Exam, ExamType, Patient, Probe, Referrer, Room, Scanner, Setting, User } from '../src/db/models';
 import { hashPassword } from '../src/server/auth/password';
+import { raiseTo } from '../src/server/services/sequences';
 import type { ExamStatus, Sex } from '../src/lib/exam-status';
 import type { Role } from '../src/lib/roles';
 import { accessionFrom, mrnFromNumber, uidFromUuid } from '../src/lib/identifiers';
@@ -53,6 +54,7 @@ export async function seedDemoClinic(sequelize: Sequelize, now = new Date()): Pr
     }
 
     const patients = await seedPatients(faker, transaction);
+    await raiseTo('mrn', patients.length, transaction);
     await seedWeekOfExams(faker, { rooms, types, patients, referrers, now }, transaction);
   });
 }
@@ -133,6 +135,7 @@ async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transact
         const start = zonedTimeToUtc(day, Math.floor(minute / 60), minute % 60, CLINIC.timeZone);
         const n = (counters.get(day) ?? 0) + 1;
         counters.set(day, n);
+        await raiseTo(`accession:${day}`, n, transaction);
         const status = statusFor(faker, start, type.durationMinutes, w.now);
         await Exam.create(
           {

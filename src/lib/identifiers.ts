@@ -13,7 +13,7 @@ export const MRN_PATTERN = /^P\d{7}$/;
 export function accessionFrom(isoDate: string, counter: number): string {
   return 'A' + isoDate.slice(2, 10).replaceAll('-', '') + String(counter).padStart(4, '0');
 }
-export const ACCESSION_PATTERN = /^A\d{10}$/;
+export const ACCESSION_PATTERN = /^A\d{10,14}$/;
 
 /**
  * A DICOM UID under the "2.25" root from a UUID (DICOM PS3.5 B.2): the UUID's 128 bits as

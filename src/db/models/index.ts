@@ -8,14 +8,15 @@ import { ReferenceRangeRow } from './ReferenceRangeRow';
 import { Referrer } from './Referrer';
 import { Room } from './Room';
 import { Scanner } from './Scanner';
+import { Sequence } from './Sequence';
 import { Setting } from './Setting';
 import { User } from './User';
 
-export { AuditEvent, Exam, ExamType, Patient, Probe, ReferenceRangeRow, Referrer, Room, Scanner, Setting, User };
+export { AuditEvent, Exam, ExamType, Patient, Probe, ReferenceRangeRow, Referrer, Room, Scanner, Sequence, Setting, User };
 
 /** Registers every model and association on one Sequelize instance. */
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [AuditEvent, Exam, ExamType, Patient, Probe, ReferenceRangeRow, Referrer, Room, Scanner, Setting, User]) {
+  for (const model of [AuditEvent, Exam, ExamType, Patient, Probe, ReferenceRangeRow, Referrer, Room, Scanner, Sequence, Setting, User]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Referrer, { foreignKey: 'referrerId', as: 'referrer' });
