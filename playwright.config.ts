@@ -10,7 +10,7 @@ export default defineConfig({
   workers: 2,
   retries: 0,
   reporter: [['list']],
-  outputDir: '.data/test/playwright',
+  outputDir: `${process.env.CRESTLINE_TEST_DIR ?? '.data/test'}/playwright`,
   use: {
     baseURL: process.env.APP_URL,
     trace: 'retain-on-failure',

@@ -40,7 +40,7 @@ async function main() {
   ensureNodeModules(root);
   const { freePort } = await import('./lib/net.mjs');
   const { mariadbPaths, startMariaDb, provision } = await import('./lib/mariadb.mjs');
-  const { buildIfStale } = await import('./lib/build.mjs');
+  const { buildIfStale, serverEntry } = await import('./lib/build.mjs');
   const { dbTask, startWebServer } = await import('./lib/stack.mjs');
 
   const baseEnv = { ASTRO_TELEMETRY_DISABLED: '1', TZ: 'UTC' };
@@ -50,7 +50,10 @@ async function main() {
   if (run.has('check')) ok = step('type check', 'npx', ['astro', 'check', '--minimumSeverity', 'warning'], baseEnv) && ok;
 
   if (run.has('integration') || run.has('e2e')) {
-    const dir = path.join(root, '.data', 'test');
+    // CRESTLINE_TEST_DIR lets two test runs share a checkout: each has its own database,
+    // build and logs.
+    const dir = path.resolve(root, process.env.CRESTLINE_TEST_DIR ?? path.join('.data', 'test'));
+    const outDir = path.join(dir, 'dist');
     const db = mariadbPaths(path.join(dir, 'db'));
     const dbPort = await freePort();
     const t0 = Date.now();
@@ -71,12 +74,12 @@ async function main() {
     timings.push({ name: 'fresh test database', seconds: (Date.now() - t0) / 1000, ok: true });
 
     const t1 = Date.now();
-    buildIfStale(root);
+    buildIfStale(root, outDir);
     mkdirSync(dir, { recursive: true });
     const appLog = path.join(dir, 'app.log');
-    const web = await startWebServer(root, env, { host: '127.0.0.1', port: await freePort(), logFile: openSync(appLog, 'w'), logPath: appLog });
+    const web = await startWebServer(root, env, { host: '127.0.0.1', port: await freePort(), logFile: openSync(appLog, 'w'), logPath: appLog, entry: serverEntry(outDir) });
     timings.push({ name: 'build and start app', seconds: (Date.now() - t1) / 1000, ok: true });
-    const testEnv = { ...env, APP_URL: web.url, APP_LOG: appLog };
+    const testEnv = { ...env, APP_URL: web.url, APP_LOG: appLog, APP_ENTRY: serverEntry(outDir), CRESTLINE_TEST_DIR: dir };
 
     if (run.has('integration')) ok = step('integration tests', 'npx', ['vitest', 'run', '--project', 'integration'], testEnv) && ok;
     if (run.has('e2e')) ok = step('browser tests', 'npx', ['playwright', 'test'], testEnv) && ok;

@@ -14,14 +14,14 @@ function newest(p) {
   return max;
 }
 
-/** Builds the app when dist/ is missing or older than any of its inputs. */
-export function buildIfStale(root) {
-  const entry = path.join(root, 'dist', 'server', 'entry.mjs');
+/** Builds the app into `outDir` when it is missing or older than any of its inputs. */
+export function buildIfStale(root, outDir = path.join(root, 'dist')) {
+  const entry = path.join(outDir, 'server', 'entry.mjs');
   const builtAt = existsSync(entry) ? statSync(entry).mtimeMs : 0;
   const changedAt = Math.max(...INPUTS.map((i) => newest(path.join(root, i))));
   if (builtAt > changedAt) return false;
   say(builtAt ? 'sources changed since the last build; building…' : 'building the app (about 15 s)…');
-  const r = spawnSync('npx', ['astro', 'build'], {
+  const r = spawnSync('npx', ['astro', 'build', '--outDir', outDir], {
     cwd: root,
     stdio: ['ignore', 'ignore', 'inherit'],
     env: { ...process.env, ASTRO_TELEMETRY_DISABLED: '1' },
@@ -29,3 +29,6 @@ export function buildIfStale(root) {
   if (r.status !== 0) fail('the build failed; run `npm run build` to see why.');
   return true;
 }
+
+/** The server entry of a build. */
+export const serverEntry = (outDir) => path.join(outDir, 'server', 'entry.mjs');

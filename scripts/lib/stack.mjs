@@ -16,11 +16,11 @@ export function dbTask(root, env, ...args) {
 }
 
 /**
- * Starts the built server (dist/server/entry.mjs) and waits for /api/health.
+ * Starts the built server (`entry`, default dist/server/entry.mjs) and waits for /api/health.
  * Returns { url, child, stop() }.
  */
-export async function startWebServer(root, env, { host, port, logFile, logPath }) {
-  const child = spawn(process.execPath, ['dist/server/entry.mjs'], {
+export async function startWebServer(root, env, { host, port, logFile, logPath, entry = 'dist/server/entry.mjs' }) {
+  const child = spawn(process.execPath, [entry], {
     cwd: root,
     env: { ...process.env, ...env, HOST: host, PORT: String(port), NODE_ENV: 'production' },
     stdio: ['ignore', logFile ?? 'inherit', logFile ?? 'inherit'],
