@@ -8,6 +8,7 @@ export type ErrorCode =
   | 'NOT_FOUND'
   | 'CONFLICT'
   | 'STALE'
+  | 'POSSIBLE_DUPLICATE'
   | 'RULE'
   | 'PAYLOAD_TOO_LARGE'
   | 'UNSUPPORTED_MEDIA_TYPE'
@@ -21,6 +22,8 @@ export class HttpError extends Error {
     readonly code: ErrorCode,
     message: string,
     readonly fields?: Record<string, string>,
+    /** More members of the error object, e.g. `{ candidates }` of a POSSIBLE_DUPLICATE. */
+    readonly extra?: Record<string, unknown>,
   ) {
     super(message);
     this.name = 'HttpError';

@@ -8,14 +8,15 @@ export function json(body: unknown, status = 200, headers: Record<string, string
   });
 }
 
-/** The one error shape of every endpoint. */
+/** The one error shape of every endpoint; `extra` adds members beside code, message and fields. */
 export function errorResponse(
   status: number,
   code: ErrorCode,
   message: string,
   fields?: Record<string, string>,
+  extra?: Record<string, unknown>,
 ): Response {
-  return json({ error: fields ? { code, message, fields } : { code, message } }, status);
+  return json({ error: { ...extra, code, message, ...(fields ? { fields } : {}) } }, status);
 }
 
 export const DATABASE_DOWN_MESSAGE =
