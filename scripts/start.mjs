@@ -43,6 +43,7 @@ async function main() {
   const { mariadbPaths, startMariaDb, provision } = await import('./lib/mariadb.mjs');
   const { buildIfStale } = await import('./lib/build.mjs');
   const { dbTask, startWebServer } = await import('./lib/stack.mjs');
+  const { startMaildev, startPaymentsFake, startWorker } = await import('./lib/standins.mjs');
   const { DEMO_USERS, DEMO_PASSWORD } = await loadDemoUsers();
 
   const envFile = path.join(root, '.env');
@@ -59,17 +60,27 @@ async function main() {
   await stopStale(db);
   if (!(await portFree(port, env.HOST))) fail(`port ${port} is already in use by another program; set PORT in .env to a free port, or stop that program.`);
   if (!(await portFree(dbPort))) fail(`port ${dbPort} (the database) is already in use by another program; set DB_PORT in .env to a free port.`);
+  for (const key of ['MAIL_SMTP_PORT', 'MAIL_WEB_PORT', 'PAYMENTS_FAKE_PORT']) {
+    if (!(await portFree(Number(env[key])))) fail(`port ${env[key]} (${key}) is already in use by another program; set ${key} in .env to a free port.`);
+  }
 
   say(`starting the database on 127.0.0.1:${dbPort}…`);
   await startMariaDb(db, { port: dbPort });
   provision(db, { database: env.DB_NAME, user: env.DB_USER, password: env.DB_PASSWORD });
 
+  const paymentsUrl = `http://127.0.0.1:${env.PAYMENTS_FAKE_PORT}`;
   const appEnv = {
     DATABASE_URL: databaseUrl(env),
     AUTH_SECRET: env.AUTH_SECRET,
     DATA_DIR: dataDir,
     LOG_LEVEL: env.LOG_LEVEL || 'info',
     SESSION_MAX_AGE_HOURS: env.SESSION_MAX_AGE_HOURS || '10',
+    SMTP_HOST: '127.0.0.1',
+    SMTP_PORT: env.MAIL_SMTP_PORT,
+    // The local payments stand-in; a real key and no STRIPE_API_BASE would talk to Stripe itself.
+    STRIPE_SECRET_KEY: 'sk_test_crestline_local',
+    STRIPE_API_BASE: paymentsUrl,
+    STRIPE_WEBHOOK_SECRET: env.STRIPE_WEBHOOK_SECRET,
   };
   dbTask(root, appEnv, 'migrate');
   dbTask(root, appEnv, 'reference');
@@ -78,7 +89,11 @@ async function main() {
 
   mkdirSync(path.join(dataDir, 'log'), { recursive: true });
   const appLog = path.join(dataDir, 'log', 'app.log');
+  const logTo = (name) => openSync(path.join(dataDir, 'log', name), 'a');
+  const mail = await startMaildev(root, { smtpPort: Number(env.MAIL_SMTP_PORT), webPort: Number(env.MAIL_WEB_PORT), dir: path.join(dataDir, 'mail'), logFile: logTo('maildev.log') });
+  await startPaymentsFake(root, { port: Number(env.PAYMENTS_FAKE_PORT), webhookUrl: `http://${env.HOST}:${port}/api/payments/webhook`, webhookSecret: env.STRIPE_WEBHOOK_SECRET, logFile: logTo('payments.log') });
   const web = await startWebServer(root, appEnv, { host: env.HOST, port, logFile: openSync(appLog, 'a'), logPath: appLog });
+  startWorker(root, appEnv, { logFile: logTo('worker.log') });
   web.child.once('exit', (code) => {
     if (shuttingDown) return;
     say(`the web server stopped unexpectedly (exit ${code}); see ${appLog}. Shutting down.`);
@@ -90,7 +105,9 @@ async function main() {
   say(`${bold('Crestline is running')} at ${bold(web.url)}  (ready in ${seconds} s)`);
   say(`demo sign-ins, all with the password ${bold(DEMO_PASSWORD)}:`);
   for (const u of DEMO_USERS) say(`  ${u.role.padEnd(12)} ${u.email}`);
-  say(`logs: ${appLog} and ${db.log}`);
+  say(`mail sent by Crestline lands in the inbox at ${bold(mail.url)}`);
+  say(`card payments go to the local payments stand-in at ${paymentsUrl} (test cards only)`);
+  say(`logs: ${path.join(dataDir, 'log')}/ (app, worker, maildev, payments) and ${db.log}`);
   say('press Ctrl-C to stop everything this started.');
 }
 

@@ -3,6 +3,7 @@ import type { Sequelize, Transaction } from 'sequelize';
 import { Exam, ExamType, Patient, Probe, Referrer, Room, Scanner, Setting, User } from '../src/db/models';
 import { hashPassword } from '../src/server/auth/password';
 import { raiseTo } from '../src/server/services/sequences';
+import { DEFAULT_CLINIC_HOURS, DEFAULT_PAYMENT_POLICY } from '../src/lib/schemas/settings';
 import type { ExamStatus, Sex } from '../src/lib/exam-status';
 import type { Role } from '../src/lib/roles';
 import { accessionFrom, mrnFromNumber, uidFromUuid } from '../src/lib/identifiers';
@@ -20,6 +21,8 @@ export async function seedDemoClinic(sequelize: Sequelize, now = new Date()): Pr
 
   await sequelize.transaction(async (transaction) => {
     await Setting.create({ key: 'clinic', value: CLINIC }, { transaction });
+    await Setting.create({ key: 'clinic.hours', value: DEFAULT_CLINIC_HOURS }, { transaction });
+    await Setting.create({ key: 'payments.policy', value: DEFAULT_PAYMENT_POLICY }, { transaction });
 
     const referrers = await seedReferrers(faker, transaction);
     const users = new Map<string, User>();
@@ -137,6 +140,9 @@ async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transact
         counters.set(day, n);
         await raiseTo(`accession:${day}`, n, transaction);
         const status = statusFor(faker, start, type.durationMinutes, w.now);
+        // Past exams were billed to insurers; about a third of those still ahead are self-pay
+        // with the deposit not yet taken, so the desk has deposits to collect in the demo.
+        const selfPay = status === 'booked' && faker.datatype.boolean(0.35);
         await Exam.create(
           {
             accessionNumber: accessionFrom(day, n),
@@ -148,7 +154,12 @@ async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transact
             sonographerId: r.sonographer.id,
             scheduledStart: start,
             durationMinutes: type.durationMinutes,
+            scheduledEnd: new Date(start.getTime() + type.durationMinutes * 60_000),
             status,
+            payer: selfPay ? 'self-pay' : 'insured',
+            depositCents: selfPay ? type.depositCents : 0,
+            paymentState: selfPay && type.depositCents > 0 ? 'deposit-due' : 'none',
+            createdBy: null,
             priority: faker.datatype.boolean(0.1) ? 'urgent' : 'routine',
             indication: faker.helpers.arrayElement(INDICATIONS[type.code] ?? ['Clinical assessment']),
             studyInstanceUid: uidFromUuid(faker.string.uuid()),

@@ -29,10 +29,25 @@ DB_PASSWORD=${secret(18)}
 # Where the database, logs and (later) stored files live.
 DATA_DIR=.data
 LOG_LEVEL=info
+
+# Local stand-ins that npm start runs: the mail catcher (SMTP + web inbox) and the payments
+# stand-in the Stripe SDK talks to. The webhook secret is shared by the stand-in and the app.
+MAIL_SMTP_PORT=1025
+MAIL_WEB_PORT=1080
+PAYMENTS_FAKE_PORT=12111
+STRIPE_WEBHOOK_SECRET=whsec_${secret(24)}
 `;
 }
 
 export const REQUIRED_KEYS = ['HOST', 'PORT', 'AUTH_SECRET', 'DB_PORT', 'DB_NAME', 'DB_USER', 'DB_PASSWORD', 'DATA_DIR'];
+
+// Keys added after a .env may have been written; an older file gets these values.
+const LATER_DEFAULTS = {
+  MAIL_SMTP_PORT: '1025',
+  MAIL_WEB_PORT: '1080',
+  PAYMENTS_FAKE_PORT: '12111',
+  STRIPE_WEBHOOK_SECRET: `whsec_${secret(24)}`,
+};
 
 /** Creates .env with fresh secrets when it does not exist. */
 export function ensureEnvFile(file) {
@@ -44,12 +59,12 @@ export function ensureEnvFile(file) {
 
 /** Reads .env and checks every required key has a usable value. */
 export function readEnvFile(file) {
-  const values = parseEnv(readFileSync(file, 'utf8'));
+  const values = { ...LATER_DEFAULTS, ...parseEnv(readFileSync(file, 'utf8')) };
   const missing = REQUIRED_KEYS.filter((k) => !values[k] || !String(values[k]).trim());
   if (missing.length) {
     fail(`${file} has no value for ${missing.join(', ')}. Add ${missing.length > 1 ? 'them' : 'it'} (see README, Configuration), or delete ${file} to have it written afresh.`);
   }
-  for (const k of ['PORT', 'DB_PORT']) {
+  for (const k of ['PORT', 'DB_PORT', 'MAIL_SMTP_PORT', 'MAIL_WEB_PORT', 'PAYMENTS_FAKE_PORT']) {
     const n = Number(values[k]);
     if (!Number.isInteger(n) || n < 1024 || n > 65535) fail(`${file}: ${k} must be a port number between 1024 and 65535 (it is "${values[k]}").`);
   }

@@ -46,3 +46,21 @@ export type { ProbeKind };
 
 export const SEXES = ['female', 'male', 'other', 'unknown'] as const;
 export type Sex = (typeof SEXES)[number];
+
+/** Who pays: self-pay patients pay a deposit and the balance here; insured exams are billed elsewhere. */
+export const PAYERS = ['self-pay', 'insured'] as const;
+export type Payer = (typeof PAYERS)[number];
+
+/** What the payment ledger of an exam adds up to (kept on the exam row for the worklist). */
+export const PAYMENT_STATES = ['none', 'deposit-due', 'deposit-paid', 'paid', 'refund-due', 'refunded', 'deposit-kept'] as const;
+export type PaymentState = (typeof PAYMENT_STATES)[number];
+
+export const PAYMENT_STATE_LABELS: Record<PaymentState, string> = {
+  none: 'Billed elsewhere',
+  'deposit-due': 'Deposit due',
+  'deposit-paid': 'Deposit paid',
+  paid: 'Paid in full',
+  'refund-due': 'Refund on its way',
+  refunded: 'Refunded',
+  'deposit-kept': 'Deposit kept',
+};

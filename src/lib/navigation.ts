@@ -12,6 +12,10 @@ export interface NavItem {
  */
 export const NAV_ITEMS: readonly NavItem[] = [
   { href: '/', label: 'Today', roles: ['admin', 'frontdesk', 'sonographer', 'radiologist', 'referrer'] },
+  { href: '/worklist', label: 'Worklist', roles: ['admin', 'frontdesk', 'sonographer', 'radiologist'] },
+  { href: '/schedule', label: 'Schedule', roles: ['admin', 'frontdesk', 'sonographer', 'radiologist'] },
+  { href: '/patients', label: 'Patients', roles: ['admin', 'frontdesk', 'sonographer', 'radiologist'] },
+  { href: '/referrers', label: 'Referring clinicians', roles: ['admin', 'frontdesk'] },
   { href: '/admin/users', label: 'Staff & access', roles: ['admin'] },
   { href: '/admin/audit', label: 'Audit trail', roles: ['admin'] },
   { href: '/admin/reference-ranges', label: 'Reference ranges', roles: ['admin', 'radiologist', 'sonographer'] },

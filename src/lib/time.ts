@@ -105,3 +105,23 @@ export function formatDay(isoDate: string): string {
 function pad(n: number): string {
   return String(n).padStart(2, '0');
 }
+
+/** An instant as the clinic reads it, e.g. "Thu 3 Dec 2026 at 09:15". */
+export function formatInstant(instant: Date, timeZone: string): string {
+  return `${formatDay(zonedDate(instant, timeZone))} at ${zonedClock(instant, timeZone)}`;
+}
+
+/**
+ * A fast clock formatter for instants inside one clinic day: when the zone's offset is the same
+ * at both ends of the day (no clock change), times are worked out arithmetically instead of
+ * through Intl for every row; otherwise it falls back to zonedClock.
+ */
+export function dayClock(isoDate: string, timeZone: string): (instant: Date) => string {
+  const { start, end } = zonedDayRange(isoDate, timeZone);
+  const offset = zoneOffsetMinutes(start, timeZone);
+  if (offset !== zoneOffsetMinutes(new Date(end.getTime() - 1), timeZone)) return (instant) => zonedClock(instant, timeZone);
+  return (instant) => {
+    const minutes = Math.floor((instant.getTime() / 60_000 + offset) % 1440 + 1440) % 1440;
+    return `${pad(Math.floor(minutes / 60))}:${pad(minutes % 60)}`;
+  };
+}

@@ -12,6 +12,21 @@ const schema = z.object({
   DATA_DIR: z.string().default('.data'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   SESSION_MAX_AGE_HOURS: z.coerce.number().int().min(1).max(72).default(10),
+  // Card payments (Stripe). Without a key, payment actions answer 503 and say so.
+  STRIPE_SECRET_KEY: z.string().regex(/^(sk|rk)_(test|live)_/, 'must be a Stripe secret key (sk_test_… or sk_live_…)').optional(),
+  STRIPE_WEBHOOK_SECRET: z.string().min(8).optional(),
+  /** Where the payments API lives when it is not Stripe itself (the local fake), e.g. http://127.0.0.1:12111. */
+  STRIPE_API_BASE: z.url().optional(),
+  /** Publishable key for the provider's own card element in the browser (live mode). */
+  STRIPE_PUBLISHABLE_KEY: z.string().regex(/^pk_(test|live)_/).optional(),
+  // Outgoing e-mail.
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(1025),
+  SMTP_SECURE: z.enum(['true', 'false']).default('false').transform((v) => v === 'true'),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASSWORD: z.string().optional(),
+  /** Sender address; defaults to the clinic's e-mail from its profile. */
+  MAIL_FROM: z.string().optional(),
 });
 
 export type ServerConfig = z.infer<typeof schema>;

@@ -1,13 +1,13 @@
 import { expect, test } from '@playwright/test';
-import { demo, signInAs } from './support';
+import { demo, hydrated, open, signInAs } from './support';
 
 // What each role sees in the navigation rail (src/lib/navigation.ts).
 const EXPECTED_NAV: Record<string, { role: string; sees: string[]; doesNotSee: string[] }> = {
-  admin: { role: 'Clinic manager', sees: ['Today', 'Staff & access', 'Audit trail', 'Reference ranges', 'My account'], doesNotSee: [] },
-  desk: { role: 'Front desk', sees: ['Today', 'My account'], doesNotSee: ['Staff & access', 'Audit trail', 'Reference ranges'] },
-  sono1: { role: 'Sonographer', sees: ['Today', 'Reference ranges', 'My account'], doesNotSee: ['Staff & access', 'Audit trail'] },
-  reader: { role: 'Reading physician', sees: ['Today', 'Reference ranges', 'My account'], doesNotSee: ['Staff & access', 'Audit trail'] },
-  referrer: { role: 'Referring clinician', sees: ['Today', 'My account'], doesNotSee: ['Staff & access', 'Audit trail', 'Reference ranges'] },
+  admin: { role: 'Clinic manager', sees: ['Today', 'Worklist', 'Schedule', 'Patients', 'Referring clinicians', 'Staff & access', 'Audit trail', 'Reference ranges', 'My account'], doesNotSee: [] },
+  desk: { role: 'Front desk', sees: ['Today', 'Worklist', 'Schedule', 'Patients', 'Referring clinicians', 'My account'], doesNotSee: ['Staff & access', 'Audit trail', 'Reference ranges'] },
+  sono1: { role: 'Sonographer', sees: ['Today', 'Worklist', 'Schedule', 'Patients', 'Reference ranges', 'My account'], doesNotSee: ['Referring clinicians', 'Staff & access', 'Audit trail'] },
+  reader: { role: 'Reading physician', sees: ['Today', 'Worklist', 'Schedule', 'Patients', 'Reference ranges', 'My account'], doesNotSee: ['Referring clinicians', 'Staff & access', 'Audit trail'] },
+  referrer: { role: 'Referring clinician', sees: ['Today', 'My account'], doesNotSee: ['Worklist', 'Schedule', 'Patients', 'Referring clinicians', 'Staff & access', 'Audit trail', 'Reference ranges'] },
 };
 
 for (const [key, expected] of Object.entries(EXPECTED_NAV)) {
@@ -36,6 +36,7 @@ test('a front-desk user is turned away from the staff page', async ({ page }) =>
 test('a signed-out visitor is sent to sign in and returned afterwards', async ({ page }) => {
   await page.goto('/admin/audit');
   await expect(page).toHaveURL(/\/signin\?next=%2Fadmin%2Faudit/);
+  await hydrated(page);
   await page.getByLabel('E-mail').fill(demo('admin').email);
   await page.getByLabel('Password').fill('crestline-demo');
   await page.getByRole('button', { name: 'Sign in' }).click();
@@ -43,7 +44,7 @@ test('a signed-out visitor is sent to sign in and returned afterwards', async ({
 });
 
 test('a wrong password gets a clear message and no session', async ({ page }) => {
-  await page.goto('/signin');
+  await open(page, '/signin');
   await page.getByLabel('E-mail').fill(demo('reader').email);
   await page.getByLabel('Password').fill('not the password');
   await page.getByRole('button', { name: 'Sign in' }).click();
@@ -53,7 +54,7 @@ test('a wrong password gets a clear message and no session', async ({ page }) =>
 });
 
 test('empty fields are announced before anything is sent', async ({ page }) => {
-  await page.goto('/signin');
+  await open(page, '/signin');
   await page.getByRole('button', { name: 'Sign in' }).click();
   await expect(page.getByText('Enter your e-mail address.')).toBeVisible();
   await expect(page.getByLabel('E-mail')).toHaveAttribute('aria-invalid', 'true');

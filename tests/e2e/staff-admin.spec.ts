@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { demo, signInAs } from './support';
+import { demo, open, signInAs } from './support';
 
 test('the manager creates a sonographer account that can then sign in', async ({ page, browser }) => {
   const email = `new-sono-${Date.now()}@tests.test`;
@@ -28,7 +28,7 @@ test('the manager creates a sonographer account that can then sign in', async ({
 test('the manager deactivates an account and it can no longer sign in', async ({ page, browser }) => {
   const email = `leaver-${Date.now()}@tests.test`;
   await signInAs(page, demo('admin').email);
-  await page.goto('/admin/users');
+  await open(page, '/admin/users');
   await page.getByRole('button', { name: 'New account' }).click();
   const form = page.getByRole('form', { name: 'New account' });
   await form.getByLabel('Full name').fill('Leaving Soon');
@@ -42,7 +42,7 @@ test('the manager deactivates an account and it can no longer sign in', async ({
   await expect(page.getByRole('row', { name: /Leaving Soon/ })).toContainText('Deactivated');
 
   const other = await browser.newPage();
-  await other.goto('/signin');
+  await open(other, '/signin');
   await other.getByLabel('E-mail').fill(email);
   await other.getByLabel('Password').fill('a long first password');
   await other.getByRole('button', { name: 'Sign in' }).click();

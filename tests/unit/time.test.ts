@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { addDays, ageOn, zonedClock, zonedDate, zonedDayRange, zonedTimeToUtc } from '../../src/lib/time';
+import { addDays, ageOn, dayClock, zonedClock, zonedDate, zonedDayRange, zonedTimeToUtc } from '../../src/lib/time';
 
 const CHI = 'America/Chicago';
 
@@ -45,5 +45,18 @@ describe('addDays and ageOn', () => {
     expect(ageOn('1980-06-15', '2026-06-15')).toBe(46);
     expect(ageOn('2000-02-29', '2027-02-28')).toBe(26);
     expect(ageOn('2000-02-29', '2027-03-01')).toBe(27);
+  });
+});
+
+describe('dayClock', () => {
+  it('agrees with zonedClock on ordinary days and on clock-change days', () => {
+    for (const day of ['2026-12-02', '2026-03-08', '2026-11-01', '2026-07-15']) {
+      const clock = dayClock(day, CHI);
+      const { start } = zonedDayRange(day, CHI);
+      for (let m = 0; m < 24 * 60; m += 7) {
+        const t = new Date(start.getTime() + m * 60_000);
+        expect(clock(t), `${day} +${m} min`).toBe(zonedClock(t, CHI));
+      }
+    }
   });
 });

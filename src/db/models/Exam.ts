@@ -7,7 +7,7 @@ import {
   type InferCreationAttributes,
   type Sequelize,
 } from 'sequelize';
-import { EXAM_STATUSES, PRIORITIES, type ExamStatus, type Priority } from '../../lib/exam-status';
+import { EXAM_STATUSES, PAYERS, PAYMENT_STATES, PRIORITIES, type ExamStatus, type Payer, type PaymentState, type Priority } from '../../lib/exam-status';
 
 export class Exam extends Model<InferAttributes<Exam>, InferCreationAttributes<Exam>> {
   declare id: CreationOptional<number>;
@@ -22,6 +22,8 @@ export class Exam extends Model<InferAttributes<Exam>, InferCreationAttributes<E
   /** UTC instant. */
   declare scheduledStart: Date;
   declare durationMinutes: number;
+  /** scheduledStart + durationMinutes, stored so clash checks can use an index. */
+  declare scheduledEnd: Date;
   declare status: CreationOptional<ExamStatus>;
   declare priority: CreationOptional<Priority>;
   declare indication: string;
@@ -31,6 +33,13 @@ export class Exam extends Model<InferAttributes<Exam>, InferCreationAttributes<E
   declare priceCents: number;
   declare currency: string;
   declare cancelReason: string | null;
+  declare payer: CreationOptional<Payer>;
+  /** Deposit asked at booking (0 when none); the catalog may change later, this does not. */
+  declare depositCents: CreationOptional<number>;
+  /** Summary of the payment ledger, kept in step by the payments service. */
+  declare paymentState: CreationOptional<PaymentState>;
+  declare reminderQueuedAt: CreationOptional<Date | null>;
+  declare createdBy: number | null;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
@@ -48,6 +57,7 @@ export class Exam extends Model<InferAttributes<Exam>, InferCreationAttributes<E
         sonographerId: { type: DataTypes.INTEGER, allowNull: false },
         scheduledStart: { type: DataTypes.DATE, allowNull: false },
         durationMinutes: { type: DataTypes.INTEGER, allowNull: false },
+        scheduledEnd: { type: DataTypes.DATE, allowNull: false },
         status: { type: DataTypes.ENUM(...EXAM_STATUSES), allowNull: false, defaultValue: 'booked' },
         priority: { type: DataTypes.ENUM(...PRIORITIES), allowNull: false, defaultValue: 'routine' },
         indication: { type: DataTypes.TEXT, allowNull: false },
@@ -55,6 +65,11 @@ export class Exam extends Model<InferAttributes<Exam>, InferCreationAttributes<E
         priceCents: { type: DataTypes.INTEGER, allowNull: false },
         currency: { type: DataTypes.CHAR(3), allowNull: false },
         cancelReason: { type: DataTypes.STRING(500), allowNull: true },
+        payer: { type: DataTypes.ENUM(...PAYERS), allowNull: false, defaultValue: 'self-pay' },
+        depositCents: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        paymentState: { type: DataTypes.ENUM(...PAYMENT_STATES), allowNull: false, defaultValue: 'none' },
+        reminderQueuedAt: { type: DataTypes.DATE, allowNull: true },
+        createdBy: { type: DataTypes.INTEGER, allowNull: true },
         version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,

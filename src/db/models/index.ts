@@ -2,7 +2,10 @@ import type { Sequelize } from 'sequelize';
 import { AuditEvent } from './AuditEvent';
 import { Exam } from './Exam';
 import { ExamType } from './ExamType';
+import { OutboxMessage } from './OutboxMessage';
 import { Patient } from './Patient';
+import { Payment } from './Payment';
+import { PaymentEvent } from './PaymentEvent';
 import { Probe } from './Probe';
 import { ReferenceRangeRow } from './ReferenceRangeRow';
 import { Referrer } from './Referrer';
@@ -12,11 +15,11 @@ import { Sequence } from './Sequence';
 import { Setting } from './Setting';
 import { User } from './User';
 
-export { AuditEvent, Exam, ExamType, Patient, Probe, ReferenceRangeRow, Referrer, Room, Scanner, Sequence, Setting, User };
+export { AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ReferenceRangeRow, Referrer, Room, Scanner, Sequence, Setting, User };
 
 /** Registers every model and association on one Sequelize instance. */
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [AuditEvent, Exam, ExamType, Patient, Probe, ReferenceRangeRow, Referrer, Room, Scanner, Sequence, Setting, User]) {
+  for (const model of [AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ReferenceRangeRow, Referrer, Room, Scanner, Sequence, Setting, User]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Referrer, { foreignKey: 'referrerId', as: 'referrer' });
@@ -30,4 +33,7 @@ export function initModels(sequelize: Sequelize): void {
   Exam.belongsTo(Scanner, { foreignKey: 'scannerId', as: 'scanner' });
   Exam.belongsTo(User, { foreignKey: 'sonographerId', as: 'sonographer' });
   Patient.hasMany(Exam, { foreignKey: 'patientId', as: 'exams' });
+  Exam.hasMany(Payment, { foreignKey: 'examId', as: 'payments' });
+  Payment.belongsTo(Exam, { foreignKey: 'examId', as: 'exam' });
+  Exam.hasMany(OutboxMessage, { foreignKey: 'examId', as: 'messages' });
 }

@@ -113,7 +113,7 @@ async function readJson(request: Request, maxBytes = 64 * 1024): Promise<unknown
 
 function toErrorResponse(error: unknown, requestId: string, route: string): Response {
   if (error instanceof HttpError) {
-    return errorResponse(error.status, error.code, error.message, error.fields);
+    return errorResponse(error.status, error.code, error.message, error.fields, error.extra);
   }
   if (error instanceof OptimisticLockError) {
     return errorResponse(409, 'STALE', 'Someone else saved a newer version first. Reload to see it, then try again.');
@@ -126,6 +126,11 @@ function toErrorResponse(error: unknown, requestId: string, route: string): Resp
   }
   if (error instanceof ForeignKeyConstraintError) {
     return errorResponse(409, 'CONFLICT', 'This record is linked to others and cannot be changed that way.');
+  }
+  const errno = (error as { parent?: { errno?: number } })?.parent?.errno;
+  if (errno === 1213 || errno === 1205) {
+    // Deadlock or lock wait time-out: another change to the same records won the race.
+    return errorResponse(409, 'CONFLICT', 'Someone else was changing the same records at that moment. Nothing was saved; please try again.');
   }
   if (error instanceof ConnectionError || error instanceof TimeoutError) {
     log.error({ requestId, route, err: { name: error.name } }, 'database unavailable');

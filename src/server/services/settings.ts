@@ -1,5 +1,7 @@
+import type { Transaction } from 'sequelize';
 import { Setting } from '../../db/models';
 import { clinicProfileSchema, type ClinicProfile } from '../../lib/schemas/clinic';
+import { clinicHoursSchema, DEFAULT_CLINIC_HOURS, DEFAULT_PAYMENT_POLICY, paymentPolicySchema, type ClinicHours, type PaymentPolicy } from '../../lib/schemas/settings';
 
 // Used until the manager saves a profile; the demo seed writes a full one.
 const FALLBACK: ClinicProfile = {
@@ -11,21 +13,46 @@ const FALLBACK: ClinicProfile = {
   currency: 'USD',
 };
 
-let cache: { at: number; value: ClinicProfile } | undefined;
 const CACHE_MS = 30_000;
+const cache = new Map<string, { at: number; value: unknown }>();
 
-/** The clinic profile (name, address, time zone), cached for half a minute. */
-export async function clinicProfile(): Promise<ClinicProfile> {
-  if (cache && Date.now() - cache.at < CACHE_MS) return cache.value;
-  let row: Setting | null;
+/** Drops cached settings (after the manager changes one). */
+export function forgetSettingsCache(): void {
+  cache.clear();
+}
+
+/**
+ * Reads one setting, validated, with a fallback, cached for half a minute. Inside a use-case
+ * pass its transaction, so the read uses the transaction's connection and never waits for a
+ * second one from the pool.
+ */
+async function readSetting<T>(key: string, schema: { safeParse(v: unknown): { success: boolean; data?: T } }, fallback: T, transaction?: Transaction): Promise<T> {
+  const hit = cache.get(key);
+  if (hit && Date.now() - hit.at < CACHE_MS) return hit.value as T;
+  const row = await Setting.findByPk(key, { transaction });
+  const parsed = schema.safeParse(row?.value);
+  const value = parsed.success ? (parsed.data as T) : fallback;
+  cache.set(key, { at: Date.now(), value });
+  return value;
+}
+
+/** The clinic profile (name, address, time zone). */
+export async function clinicProfile(transaction?: Transaction): Promise<ClinicProfile> {
   try {
-    row = await Setting.findByPk('clinic');
-  } catch {
-    // The sign-in page must still render when the database is away; do not cache this.
+    return await readSetting('clinic', clinicProfileSchema, FALLBACK, transaction);
+  } catch (error) {
+    // The sign-in page must still render when the database is away (not cached).
+    if (transaction) throw error;
     return FALLBACK;
   }
-  const parsed = clinicProfileSchema.safeParse(row?.value);
-  const value = parsed.success ? parsed.data : FALLBACK;
-  cache = { at: Date.now(), value };
-  return value;
+}
+
+/** Opening hours per weekday and closed dates ('clinic.hours'). */
+export function clinicHours(transaction?: Transaction): Promise<ClinicHours> {
+  return readSetting('clinic.hours', clinicHoursSchema, DEFAULT_CLINIC_HOURS, transaction);
+}
+
+/** The cancellation refund policy ('payments.policy'). */
+export function paymentPolicy(transaction?: Transaction): Promise<PaymentPolicy> {
+  return readSetting('payments.policy', paymentPolicySchema, DEFAULT_PAYMENT_POLICY, transaction);
 }
