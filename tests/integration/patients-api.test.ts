@@ -282,7 +282,7 @@ describe('who may do what with patients', () => {
     expect((await call('GET', '/patients/1', { cookie })).status).toBe(403);
   });
 
-  it('the record page shows the exams newest first and leaves room for the booking button', async () => {
+  it('the record page shows the exams newest first, with "Book an exam" for the desk only', async () => {
     const withExams = (await Exam.findAll({ attributes: ['patientId'], order: [['patientId', 'ASC']] })).map((e) => e.patientId);
     const patientId = withExams.find((id, i) => withExams.indexOf(id) !== i)!;
     const exams = await listPatientExams(patientId, 'America/Chicago');
@@ -291,8 +291,10 @@ describe('who may do what with patients', () => {
     expect(keys).toEqual([...keys].sort().reverse());
     const page = await call('GET', `/patients/${patientId}`, { cookie: await sessionFor('sonographer') });
     expect(page.status).toBe(200);
-    expect(page.body).toContain('id="patient-actions"');
+    expect(page.body).not.toContain(`/exams/new?patientId=${patientId}`);
     expect(page.body).toContain(exams[0]!.accessionNumber);
+    const deskPage = await call('GET', `/patients/${patientId}`, { cookie: await sessionFor('frontdesk') });
+    expect(deskPage.body).toContain(`href="/exams/new?patientId=${patientId}"`);
     expect((await call('GET', '/patients/987654', { cookie: await sessionFor('frontdesk') })).status).toBe(404);
   });
 });
