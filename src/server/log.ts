@@ -9,12 +9,14 @@ export const log = pino(
     level: process.env.LOG_LEVEL ?? 'info',
     base: { app: 'crestline' },
     redact: {
-      paths: ['password', '*.password', 'email', '*.email', 'name', '*.name', 'headers.cookie'],
+      // A second line of defence only: code must not pass patient data to the logger at all.
+      // (Not `name`: error and model names are logged on purpose.)
+      paths: ['password', '*.password', 'email', '*.email', 'headers.cookie', 'familyName', 'givenName', '*.familyName', '*.givenName'],
       censor: '[redacted]',
     },
   },
-  // Buffered writes (one line per request would otherwise be one synchronous write each);
-  // flushed on exit so the last lines are not lost.
-  pino.destination({ dest: 1, sync: false, minLength: 4096 }),
+  // Asynchronous writes: a busy server coalesces lines instead of one blocking write per
+  // request; flushed on exit so the last lines are not lost.
+  pino.destination({ dest: 1, sync: false }),
 );
 process.once('exit', () => log.flush());

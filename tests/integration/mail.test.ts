@@ -74,6 +74,26 @@ describe('patient e-mail through the outbox', () => {
     expect(copies).toHaveLength(1);
   });
 
+  it('is sent by the worker process on its own, as in production', async () => {
+    const { spawn } = await import('node:child_process');
+    const { ROOT } = await import('../helpers/routes');
+    const res = await book(bookingBody(c, { patientId: patient.id, start: at(testDay(15), 14, 0), type: 'echo-tte', roomIndex: 2 }));
+    expect(res.status).toBe(201);
+    const worker = spawn(process.execPath, ['--import', 'tsx', 'scripts/worker.ts'], { cwd: ROOT, env: { ...process.env, WORKER_INTERVAL_MS: '300' }, stdio: 'ignore' });
+    try {
+      const end = Date.now() + 20_000;
+      let row = await OutboxMessage.findOne({ where: { examId: res.body.exam.id } });
+      while (row?.status !== 'sent' && Date.now() < end) {
+        await new Promise((r) => setTimeout(r, 300));
+        row = await OutboxMessage.findOne({ where: { examId: res.body.exam.id } });
+      }
+      expect(row?.status).toBe('sent');
+      expect((await inbox()).some((m) => m.text.includes(res.body.exam.accessionNumber))).toBe(true);
+    } finally {
+      worker.kill('SIGTERM');
+    }
+  });
+
   it('queues one reminder the day before, however often the worker looks', async () => {
     const res = await book(bookingBody(c, { patientId: patient.id, start: at(testDay(16), 10, 0), type: 'thyroid' }));
     const eveBefore = zonedTimeToUtc(addDays(testDay(16), -1), 18, 0, TZ);

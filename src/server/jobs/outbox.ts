@@ -1,5 +1,6 @@
 import { Op } from 'sequelize';
 import type { Transporter } from 'nodemailer';
+import { db } from '../../db/connection';
 import { OutboxMessage } from '../../db/models';
 import { log } from '../log';
 import { config } from '../config';
@@ -19,8 +20,7 @@ const CLAIM_MS = 60_000;
  */
 export async function deliverDueMail(transport: Transporter, opts: { workerId: string; now?: Date; batch?: number }): Promise<{ sent: number; failed: number }> {
   const now = opts.now ?? new Date();
-  const sequelize = OutboxMessage.sequelize!;
-  await sequelize.query(
+  await db().query(
     `UPDATE outbox SET claimed_by = ?, claimed_until = ? WHERE status = 'pending' AND next_attempt_at <= ?
        AND (claimed_until IS NULL OR claimed_until < ?) ORDER BY id LIMIT ?`,
     { replacements: [opts.workerId, new Date(now.getTime() + CLAIM_MS), now, now, opts.batch ?? 20] },

@@ -1,4 +1,5 @@
 import { REFERENCE_RANGES, REFERENCE_SET_VERSION, type ReferenceRange, type Unit } from '../../lib/clinical';
+import { col, fn, literal } from 'sequelize';
 import { ReferenceRangeRow } from '../../db/models';
 import { HttpError } from '../http/errors';
 
@@ -83,9 +84,9 @@ export interface ReferenceSetSummary {
 /** Every stored set, newest first by insertion. */
 export async function referenceSets(): Promise<ReferenceSetSummary[]> {
   const rows = (await ReferenceRangeRow.findAll({
-    attributes: ['referenceSet', [ReferenceRangeRow.sequelize!.fn('COUNT', ReferenceRangeRow.sequelize!.col('id')), 'n'], [ReferenceRangeRow.sequelize!.fn('MAX', ReferenceRangeRow.sequelize!.col('id')), 'last']],
+    attributes: ['referenceSet', [fn('COUNT', col('id')), 'n'], [fn('MAX', col('id')), 'last']],
     group: ['referenceSet'],
-    order: [[ReferenceRangeRow.sequelize!.literal('last'), 'DESC']],
+    order: [[literal('last'), 'DESC']],
     raw: true,
   })) as unknown as Array<{ referenceSet: string; n: number | string }>;
   return rows.map((r) => ({ version: r.referenceSet, rows: Number(r.n) }));
