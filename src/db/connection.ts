@@ -1,6 +1,5 @@
 import { Sequelize } from 'sequelize';
 import { config } from '../server/config';
-import { log } from '../server/log';
 import { initModels } from './models';
 
 let instance: Sequelize | undefined;
@@ -10,7 +9,8 @@ export function createSequelize(url: string): Sequelize {
   return new Sequelize(url, {
     dialect: 'mariadb',
     timezone: '+00:00',
-    logging: (sql) => log.trace({ sql: sql.slice(0, 200) }, 'sql'),
+    // SQL text carries patient data in its values: never logged.
+    logging: false,
     pool: { max: 10, min: 0, acquire: 10_000, idle: 10_000 },
     dialectOptions: { connectTimeout: 3_000 },
     define: { underscored: true, charset: 'utf8mb4', collate: 'utf8mb4_unicode_ci' },
