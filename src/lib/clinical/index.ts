@@ -12,6 +12,7 @@ export { classifyValue, selectReference, SEX_NOT_APPLIED, type Classification, t
 
 export { getTemplate, TEMPLATES } from './templates/registry';
 export { dataFingerprint, templateFingerprint } from './templates/fingerprint';
+export { missingRequired } from './templates/required';
 export type * from './templates/types';
 export type { NoduleAction, NoduleAssessment, NoduleInput, NoduleLobe, NoduleZone } from './templates/thyroid/nodules';
 export { DEFAULT_PROBE, PROBE_KINDS } from './probes';

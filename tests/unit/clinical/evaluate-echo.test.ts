@@ -7,6 +7,7 @@ import {
   REFERENCE_RANGES,
   roundHalfUp,
   SEX_NOT_APPLIED,
+  TEMPLATES,
   type EvaluationSuccess,
   type ReferenceRange,
 } from '@/lib/clinical';
@@ -32,7 +33,7 @@ describe('evaluate (echo)', () => {
     expect(flag(r, 'lvmiGM2')?.source).toMatch(/Lang RM et al\. J Am Soc Echocardiogr 2015/);
     // M1: RWT 0.40, normal geometry for a man
     expect(r.assessments.lvGeometry).toBe('normal');
-    expect(r.templateVersion).toBe('1.0.0');
+    expect(r.templateVersion).toBe(TEMPLATES.echo.version);
     expect(r.referenceSetVersion).toBe('crestline-ref-1.0.0');
   });
 

@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest';
-import { convert, evaluate, REFERENCE_RANGES, TEMPLATES, templateFingerprint, type NumberField, type TemplateDef } from '@/lib/clinical';
+import { convert, evaluate, missingRequired, REFERENCE_RANGES, TEMPLATES, templateFingerprint, type NumberField, type TemplateDef } from '@/lib/clinical';
 
 // Fingerprint per template version; a data change without a version bump fails here.
 const PINNED: Record<string, string> = {
-  'thyroid@1.0.0': '83e07d97',
-  'abdomen@1.0.0': '1423df82',
-  'echo@1.0.0': '3e5171e2',
+  'thyroid@1.1.0': '59e960e5',
+  'abdomen@1.1.0': 'e4937a22',
+  'echo@1.1.0': 'cdd78491',
 };
 
 const templates = Object.values(TEMPLATES);
@@ -83,5 +83,36 @@ describe('templates', () => {
 
   it('never grades Teichholz EF (CLINICAL.md §1.5)', () => {
     expect(TEMPLATES.echo.referenceChecks.some((c) => c.valueCode === 'teichholzEfPercent')).toBe(false);
+  });
+});
+
+describe('missingRequired (what "Submit preliminary" insists on)', () => {
+  const thyroid = TEMPLATES.thyroid;
+  it('lists every required field of an empty form, in scan order', () => {
+    expect(missingRequired(thyroid, {})).toEqual([
+      'rightLobeLengthCm', 'rightLobeWidthCm', 'rightLobeDepthCm',
+      'leftLobeLengthCm', 'leftLobeWidthCm', 'leftLobeDepthCm',
+      'isthmusThicknessMm', 'echotexture',
+    ]);
+  });
+  it('accepts "not measurable" but not "not done"', () => {
+    const m = { rightLobeLengthCm: 4.8, rightLobeWidthCm: 1.6, rightLobeDepthCm: 'not-measurable', leftLobeLengthCm: 'not-done' } as const;
+    const missing = missingRequired(thyroid, m);
+    expect(missing).not.toContain('rightLobeDepthCm');
+    expect(missing).toContain('leftLobeLengthCm');
+  });
+  it('waives the lobe dimensions of an absent lobe, and the gallbladder wall after cholecystectomy', () => {
+    expect(missingRequired(thyroid, { leftLobeState: 'absent' }).filter((c) => c.startsWith('leftLobe'))).toEqual([]);
+    expect(missingRequired(TEMPLATES.abdomen, { cholecystectomy: 'yes' })).not.toContain('gbWallMm');
+    expect(missingRequired(TEMPLATES.abdomen, { cholecystectomy: 'no' })).toContain('gbWallMm');
+  });
+  it('only names fields that exist in the template', () => {
+    for (const t of templates) {
+      const codes = new Set(t.sections.flatMap((s) => s.fields.map((f) => f.code)));
+      for (const rule of t.required) {
+        expect(codes.has(rule.code), `${t.id}: ${rule.code}`).toBe(true);
+        if (rule.unless) expect(codes.has(rule.unless.code), `${t.id}: ${rule.unless.code}`).toBe(true);
+      }
+    }
   });
 });

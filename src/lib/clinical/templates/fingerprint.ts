@@ -24,6 +24,7 @@ export function templateFingerprint(t: TemplateDef): string {
     derived: t.derived,
     referenceChecks: t.referenceChecks.map((c) => [c.valueCode, c.referenceCode, c.adjust !== undefined]),
     nodules: t.nodules,
+    required: t.required,
   };
   return fnv1a(JSON.stringify(data));
 }

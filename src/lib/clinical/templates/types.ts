@@ -70,6 +70,16 @@ export interface NoduleSpec {
   decimals: number;
 }
 
+/**
+ * A measurement the preliminary report cannot go without. It counts as given when it holds a
+ * value or is marked "not measurable"; `unless` waives it (e.g. lobe dimensions when the lobe
+ * is absent).
+ */
+export interface RequiredRule {
+  code: string;
+  unless?: { code: string; value: string };
+}
+
 export interface TemplateDef {
   id: TemplateId;
   /** Semantic version; any change to the data below bumps it (a fingerprint test enforces this). */
@@ -80,6 +90,8 @@ export interface TemplateDef {
   derived: readonly DerivedDef[];
   referenceChecks: readonly ReferenceCheck[];
   nodules: NoduleSpec | null;
+  /** What "Submit preliminary" insists on. */
+  required: readonly RequiredRule[];
   derive: (ctx: EvalContext) => DeriveOutput;
   findings: (ctx: EvalContext, out: DeriveOutput, flags: readonly Flag[]) => string[];
   urgent: (ctx: EvalContext, out: DeriveOutput, flags: readonly Flag[]) => UrgentPrompt[];

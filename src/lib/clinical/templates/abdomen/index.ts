@@ -6,7 +6,7 @@ import { abdomenFindings, abdomenUrgent } from './findings';
 
 export const ABDOMEN_TEMPLATE: TemplateDef = {
   id: 'abdomen',
-  version: '1.0.0',
+  version: '1.1.0',
   title: 'Abdominal ultrasound (complete)',
   defaultProbe: DEFAULT_PROBE.abdomen,
   sections: ABDOMEN_SECTIONS,
@@ -26,6 +26,18 @@ export const ABDOMEN_TEMPLATE: TemplateDef = {
     { valueCode: 'aortaDiameterCm', referenceCode: 'aorta-diameter' },
   ],
   nodules: null,
+  // The organs of a complete abdomen; the gallbladder wall not after cholecystectomy.
+  required: [
+    { code: 'liverLengthCm' },
+    { code: 'gbWallMm', unless: { code: 'cholecystectomy', value: 'yes' } },
+    { code: 'cbdMm' },
+    { code: 'portalVeinMm' },
+    { code: 'pancreaticDuctMm' },
+    { code: 'spleenLengthCm' },
+    { code: 'rightKidneyLengthCm' },
+    { code: 'leftKidneyLengthCm' },
+    { code: 'aortaDiameterCm' },
+  ],
   derive: deriveAbdomen,
   findings: abdomenFindings,
   urgent: abdomenUrgent,

@@ -6,7 +6,7 @@ import { thyroidFindings, thyroidUrgent } from './findings';
 
 export const THYROID_TEMPLATE: TemplateDef = {
   id: 'thyroid',
-  version: '1.0.0',
+  version: '1.1.0',
   title: 'Thyroid ultrasound',
   defaultProbe: DEFAULT_PROBE.thyroid,
   sections: THYROID_SECTIONS,
@@ -16,6 +16,14 @@ export const THYROID_TEMPLATE: TemplateDef = {
     { valueCode: 'isthmusThicknessMm', referenceCode: 'isthmus-thickness' },
   ],
   nodules: THYROID_NODULES,
+  // Both lobes in three planes (unless absent), the isthmus and the echotexture.
+  required: [
+    ...(['right', 'left'] as const).flatMap((side) =>
+      ['LengthCm', 'WidthCm', 'DepthCm'].map((d) => ({ code: `${side}Lobe${d}`, unless: { code: `${side}LobeState`, value: 'absent' } })),
+    ),
+    { code: 'isthmusThicknessMm' },
+    { code: 'echotexture' },
+  ],
   derive: deriveThyroid,
   findings: thyroidFindings,
   urgent: thyroidUrgent,
