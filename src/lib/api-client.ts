@@ -5,6 +5,8 @@ export class ApiError extends Error {
     readonly code: string,
     message: string,
     readonly fields: Record<string, string> = {},
+    /** Everything else the error object carried (e.g. `current` of a stale save). */
+    readonly details: Record<string, unknown> = {},
   ) {
     super(message);
     this.name = 'ApiError';
@@ -39,11 +41,11 @@ export async function api<T>(url: string, init: { method?: string; body?: unknow
     // fall through: a non-JSON answer is reported below
   }
   if (!res.ok) {
-    const err = (data as { error?: { code?: string; message?: string; fields?: Record<string, string> } })?.error;
+    const err = (data as { error?: { code?: string; message?: string; fields?: Record<string, string> } & Record<string, unknown> })?.error;
     if (res.status === 401) {
       throw new ApiError(401, 'UNAUTHENTICATED', err?.message ?? 'Your session has ended. Please sign in again.');
     }
-    throw new ApiError(res.status, err?.code ?? 'HTTP_' + res.status, err?.message ?? `The server answered ${res.status}.`, err?.fields);
+    throw new ApiError(res.status, err?.code ?? 'HTTP_' + res.status, err?.message ?? `The server answered ${res.status}.`, err?.fields, err ?? {});
   }
   return data as T;
 }

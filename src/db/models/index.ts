@@ -1,4 +1,5 @@
 import type { Sequelize } from 'sequelize';
+import { Attachment } from './Attachment';
 import { AuditEvent } from './AuditEvent';
 import { Exam } from './Exam';
 import { ExamType } from './ExamType';
@@ -9,17 +10,18 @@ import { PaymentEvent } from './PaymentEvent';
 import { Probe } from './Probe';
 import { ReferenceRangeRow } from './ReferenceRangeRow';
 import { Referrer } from './Referrer';
+import { Report } from './Report';
 import { Room } from './Room';
 import { Scanner } from './Scanner';
 import { Sequence } from './Sequence';
 import { Setting } from './Setting';
 import { User } from './User';
 
-export { AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ReferenceRangeRow, Referrer, Room, Scanner, Sequence, Setting, User };
+export { Attachment, AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ReferenceRangeRow, Referrer, Report, Room, Scanner, Sequence, Setting, User };
 
 /** Registers every model and association on one Sequelize instance. */
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ReferenceRangeRow, Referrer, Room, Scanner, Sequence, Setting, User]) {
+  for (const model of [Attachment, AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ReferenceRangeRow, Referrer, Report, Room, Scanner, Sequence, Setting, User]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Referrer, { foreignKey: 'referrerId', as: 'referrer' });
@@ -36,4 +38,9 @@ export function initModels(sequelize: Sequelize): void {
   Exam.hasMany(Payment, { foreignKey: 'examId', as: 'payments' });
   Payment.belongsTo(Exam, { foreignKey: 'examId', as: 'exam' });
   Exam.hasMany(OutboxMessage, { foreignKey: 'examId', as: 'messages' });
+  Exam.hasMany(Attachment, { foreignKey: 'examId', as: 'attachments' });
+  Attachment.belongsTo(Exam, { foreignKey: 'examId', as: 'exam' });
+  Attachment.belongsTo(User, { foreignKey: 'uploadedBy', as: 'uploader' });
+  Exam.hasOne(Report, { foreignKey: 'examId', as: 'report' });
+  Report.belongsTo(Exam, { foreignKey: 'examId', as: 'exam' });
 }

@@ -4,11 +4,12 @@ import { z } from 'zod';
 // bounds and answers with field errors keyed the same way ("measurements.lviddCm").
 const isoDate = z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a calendar date, YYYY-MM-DD.');
 const entry = z.union([z.number().finite(), z.string().max(40)]);
-const measurements = z
+export const measurementsSchema = z
   .record(z.string().min(1).max(60), entry)
   .refine((m) => Object.keys(m).length <= 200, 'Too many measurements.');
 
-const nodule = z
+/** One thyroid nodule as entered (the engine checks the values). */
+export const noduleSchema = z
   .object({
     id: z.string().max(40).optional(),
     lobe: z.string().max(20),
@@ -28,8 +29,8 @@ const nodule = z
 export const evaluateRequestSchema = z
   .object({
     templateId: z.enum(['thyroid', 'abdomen', 'echo'], { message: 'Choose thyroid, abdomen or echo.' }),
-    measurements,
-    nodules: z.array(nodule).max(10, 'At most 10 nodules.').optional(),
+    measurements: measurementsSchema,
+    nodules: z.array(noduleSchema).max(10, 'At most 10 nodules.').optional(),
     patient: z
       .object({
         sex: z.enum(['male', 'female', 'other', 'unknown']).nullish(),
@@ -40,7 +41,7 @@ export const evaluateRequestSchema = z
       })
       .strict(),
     prior: z
-      .object({ examDate: isoDate, measurements: measurements.optional(), nodules: z.array(nodule).max(10).optional() })
+      .object({ examDate: isoDate, measurements: measurementsSchema.optional(), nodules: z.array(noduleSchema).max(10).optional() })
       .strict()
       .nullish(),
     options: z

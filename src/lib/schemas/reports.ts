@@ -1,0 +1,60 @@
+import { z } from 'zod';
+import type { EvaluationSuccess } from '../clinical';
+import type { ProbeKind } from '../exam-status';
+import type { ReportStatus } from '../report-status';
+import { measurementsSchema, noduleSchema } from './clinical';
+
+/** An autosave of the sonographer's entries; `version` is the one the form last saw. */
+export const saveDraftSchema = z.object({
+  version: z.number().int().min(0),
+  measurements: measurementsSchema,
+  nodules: z.array(noduleSchema).max(10, 'At most 10 nodules.'),
+  heightCm: z.number().nullable(),
+  weightKg: z.number().nullable(),
+  probeId: z.number().int().positive().nullable(),
+});
+export type SaveDraftInput = z.infer<typeof saveDraftSchema>;
+
+export const versionOnlySchema = z.object({ version: z.number().int().min(0) });
+
+/** What the server keeps of an evaluation (the engine's answer minus its echo of the inputs). */
+export type StoredEvaluation = Pick<EvaluationSuccess, 'derived' | 'flags' | 'findings' | 'assessments' | 'urgentPrompts' | 'algorithms' | 'patient' | 'options' | 'cautions'>;
+
+/** A report as the form and the reading screens see it. */
+export interface ReportDto {
+  id: number;
+  examId: number;
+  status: ReportStatus;
+  version: number;
+  templateId: 'thyroid' | 'abdomen' | 'echo';
+  templateVersion: string;
+  referenceSetVersion: string;
+  measurements: Record<string, number | string>;
+  nodules: z.infer<typeof noduleSchema>[];
+  heightCm: number | null;
+  weightKg: number | null;
+  probeId: number | null;
+  probeKind: ProbeKind | null;
+  evaluation: StoredEvaluation | null;
+  findingsText: string | null;
+  abnormalCount: number;
+  updatedAt: string;
+  updatedBy: string | null;
+  submittedAt: string | null;
+}
+
+/** The exam facts a report form needs (patient factors come from the exam, not the form). */
+export interface ReportContext {
+  examId: number;
+  examVersion: number;
+  examStatus: import('../exam-status').ExamStatus;
+  accessionNumber: string;
+  examTypeName: string;
+  indication: string;
+  patient: { name: string; mrn: string; sex: import('../exam-status').Sex; birthDate: string; ageYears: number };
+  examDate: string;
+  when: string;
+  room: string;
+  sonographer: string;
+  probes: Array<{ id: number; kind: ProbeKind; label: string; frequencyMhz: string }>;
+}

@@ -1,0 +1,249 @@
+import type { Transaction } from 'sequelize';
+import { db } from '../../db/connection';
+import { Exam, ExamType, Patient, Probe, Report, Room, Scanner, User } from '../../db/models';
+import { evaluate, getTemplate, missingRequired, REFERENCE_SET_VERSION, type EvaluationSuccess, type TemplateId } from '../../lib/clinical';
+import { canMoveExam } from '../../lib/exam-status';
+import type { ReportContext, ReportDto, SaveDraftInput, StoredEvaluation } from '../../lib/schemas/reports';
+import type { SessionUser } from '../../lib/session-user';
+import { ageOn, formatInstant, zonedDate } from '../../lib/time';
+import { HttpError, notFound, ruleBroken, stale } from '../http/errors';
+import { audit } from './audit';
+import { afterChange, lockExam } from './booking';
+import { referenceSet } from './reference-ranges';
+import { clinicProfile } from './settings';
+
+function toDto(r: Report, updatedBy: string | null = null): ReportDto {
+  return {
+    id: r.id,
+    examId: r.examId,
+    status: r.status,
+    version: r.version,
+    templateId: r.templateId as ReportDto['templateId'],
+    templateVersion: r.templateVersion,
+    referenceSetVersion: r.referenceSetVersion,
+    measurements: r.measurements,
+    nodules: r.nodules as ReportDto['nodules'],
+    heightCm: r.heightCm,
+    weightKg: r.weightKg,
+    probeId: r.probeId,
+    probeKind: r.probeKind,
+    evaluation: (r.evaluation as StoredEvaluation | null) ?? null,
+    findingsText: r.findingsText,
+    abnormalCount: r.abnormalCount,
+    updatedAt: r.updatedAt.toISOString(),
+    updatedBy,
+    submittedAt: r.submittedAt?.toISOString() ?? null,
+  };
+}
+
+async function dtoWithEditor(r: Report, transaction?: Transaction): Promise<ReportDto> {
+  const editor = r.updatedBy ? await User.findByPk(r.updatedBy, { attributes: ['displayName'], transaction }) : null;
+  return toDto(r, editor?.displayName ?? null);
+}
+
+const stored = (e: EvaluationSuccess): StoredEvaluation => ({
+  derived: e.derived,
+  flags: e.flags,
+  findings: e.findings,
+  assessments: e.assessments,
+  urgentPrompts: e.urgentPrompts,
+  algorithms: e.algorithms,
+  patient: e.patient,
+  options: e.options,
+  cautions: e.cautions,
+});
+
+/**
+ * Runs the engine on a report's entries with the exam's patient factors and the stored
+ * reference set; values outside plausible bounds are a 400 naming each field.
+ */
+async function evaluateEntries(exam: Exam, patient: Patient, templateId: string, entries: Pick<SaveDraftInput, 'measurements' | 'nodules' | 'heightCm' | 'weightKg'>, timeZone: string): Promise<EvaluationSuccess> {
+  const result = evaluate({
+    templateId,
+    measurements: entries.measurements,
+    nodules: entries.nodules as never,
+    patient: { sex: patient.sex, birthDate: patient.birthDate, examDate: zonedDate(exam.scheduledStart, timeZone), heightCm: entries.heightCm, weightKg: entries.weightKg },
+    referenceRanges: await referenceSet(REFERENCE_SET_VERSION),
+  });
+  if (!result.ok) throw new HttpError(400, 'VALIDATION', 'Some values are outside what is plausible; check the units.', result.fieldErrors);
+  return result;
+}
+
+const abnormal = (e: EvaluationSuccess) => e.flags.filter((f) => f.status === 'low' || f.status === 'high').length;
+
+/**
+ * "Start scan": an arrived exam moves to in-progress and gets its draft report, with the
+ * template of its exam type and a probe of the scanner's of the template's default kind.
+ */
+export async function startExam(actor: SessionUser, examId: number, version: number, requestId: string): Promise<{ reportId: number; examVersion: number }> {
+  return afterChange(
+    db().transaction(async (transaction) => {
+      const exam = await lockExam(examId, version, transaction);
+      if (!canMoveExam(exam.status, 'in-progress')) throw ruleBroken(`Only an arrived exam can be started; this one is ${exam.status}.`);
+      const type = await ExamType.findByPk(exam.examTypeId, { transaction });
+      const template = getTemplate(type!.templateId as TemplateId);
+      if (!template) throw ruleBroken(`The exam type has no structured template (${type!.templateId}).`);
+      const probe = await Probe.findOne({ where: { scannerId: exam.scannerId, kind: template.defaultProbe }, transaction });
+      await exam.update({ status: 'in-progress', version: exam.version + 1 }, { transaction });
+      const existing = await Report.findOne({ where: { examId }, transaction });
+      const report =
+        existing ??
+        (await Report.create(
+          {
+            examId,
+            templateId: template.id,
+            templateVersion: template.version,
+            referenceSetVersion: REFERENCE_SET_VERSION,
+            measurements: {},
+            nodules: [],
+            heightCm: null,
+            weightKg: null,
+            probeId: probe?.id ?? null,
+            probeKind: probe?.kind ?? template.defaultProbe,
+            evaluation: null,
+            findingsText: null,
+            impressionText: null,
+            createdBy: actor.id,
+            updatedBy: actor.id,
+          },
+          { transaction },
+        ));
+      await audit({ actorUserId: actor.id, action: 'exam.start', entityType: 'exam', entityId: exam.id, detail: { from: 'arrived', to: 'in-progress', reportId: report.id }, requestId }, transaction);
+      return { reportId: report.id, examVersion: exam.version };
+    }),
+  );
+}
+
+/** Loads a report for a change, locked, checking the version the form saw. */
+async function lockReport(id: number, version: number, transaction: Transaction): Promise<Report> {
+  const report = await Report.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
+  if (!report) throw notFound('The report');
+  if (report.version !== version) {
+    const err = stale('report');
+    // The form keeps what was typed and shows who saved meanwhile.
+    throw new HttpError(409, err.code, `${err.message}`, undefined, { current: await dtoWithEditor(report, transaction) });
+  }
+  return report;
+}
+
+/**
+ * Autosave of a draft: the server recomputes with the same engine and stores the entries, the
+ * evaluation, the template and reference-set versions. Refuses stale versions (409) and values
+ * outside plausible bounds (400).
+ */
+export async function saveDraft(actor: SessionUser, reportId: number, input: SaveDraftInput, requestId: string): Promise<ReportDto> {
+  const { timeZone } = await clinicProfile();
+  return db().transaction(async (transaction) => {
+    const report = await lockReport(reportId, input.version, transaction);
+    if (report.status !== 'draft') throw new HttpError(409, 'CONFLICT', `This report is ${report.status} and can no longer be edited here.`);
+    const exam = await Exam.findByPk(report.examId, { transaction });
+    const patient = await Patient.findByPk(exam!.patientId, { transaction });
+    if (input.probeId !== null) {
+      const probe = await Probe.findByPk(input.probeId, { transaction });
+      if (!probe || probe.scannerId !== exam!.scannerId) throw new HttpError(400, 'VALIDATION', 'Some values need correcting.', { probeId: 'Choose a probe of this room’s scanner.' });
+    }
+    const result = await evaluateEntries(exam!, patient!, report.templateId, input, timeZone);
+    const probe = input.probeId ? await Probe.findByPk(input.probeId, { transaction }) : null;
+    await report.update(
+      {
+        measurements: input.measurements,
+        nodules: input.nodules,
+        heightCm: input.heightCm,
+        weightKg: input.weightKg,
+        probeId: input.probeId,
+        probeKind: probe?.kind ?? report.probeKind,
+        evaluation: stored(result),
+        findingsText: result.findings.join('\n'),
+        abnormalCount: abnormal(result),
+        templateVersion: getTemplate(report.templateId as TemplateId)!.version,
+        referenceSetVersion: result.referenceSetVersion,
+        updatedBy: actor.id,
+        version: report.version + 1,
+      },
+      { transaction },
+    );
+    await audit({ actorUserId: actor.id, action: 'report.save', entityType: 'report', entityId: report.id, detail: { examId: report.examId, version: report.version, fields: Object.keys(input.measurements).length, nodules: input.nodules.length }, requestId }, transaction);
+    return dtoWithEditor(report, transaction);
+  });
+}
+
+/**
+ * "Submit preliminary": every required measurement given (or marked not measurable), the
+ * findings generated by the engine, report → preliminary, exam → completed; it then waits in
+ * the reading queue.
+ */
+export async function submitPreliminary(actor: SessionUser, reportId: number, version: number, requestId: string): Promise<ReportDto> {
+  const { timeZone } = await clinicProfile();
+  return afterChange(
+    db().transaction(async (transaction) => {
+      const report = await lockReport(reportId, version, transaction);
+      if (report.status !== 'draft') throw new HttpError(409, 'CONFLICT', `This report is already ${report.status}.`);
+      const exam = await Exam.findByPk(report.examId, { transaction, lock: transaction.LOCK.UPDATE });
+      if (exam!.status !== 'in-progress') throw ruleBroken(`The exam is ${exam!.status}; only an exam being scanned can be submitted.`);
+      const template = getTemplate(report.templateId as TemplateId)!;
+      const missing = missingRequired(template, report.measurements);
+      if (missing.length) {
+        const labels = new Map(template.sections.flatMap((s) => s.fields.map((f) => [f.code, f.label] as const)));
+        throw ruleBroken(
+          `Still needed before submitting: ${missing.map((c) => labels.get(c) ?? c).join(', ')}. Enter them or mark them not measurable.`,
+          Object.fromEntries(missing.map((c) => [`measurements.${c}`, 'Required for the preliminary report.'])),
+        );
+      }
+      const patient = await Patient.findByPk(exam!.patientId, { transaction });
+      const result = await evaluateEntries(exam!, patient!, report.templateId, { ...report.get(), nodules: report.nodules as SaveDraftInput['nodules'] }, timeZone);
+      const now = new Date();
+      await report.update(
+        { status: 'preliminary', evaluation: stored(result), findingsText: result.findings.join('\n'), abnormalCount: abnormal(result), submittedBy: actor.id, submittedAt: now, updatedBy: actor.id, version: report.version + 1 },
+        { transaction },
+      );
+      await exam!.update({ status: 'completed', version: exam!.version + 1 }, { transaction });
+      await audit({ actorUserId: actor.id, action: 'report.preliminary', entityType: 'report', entityId: report.id, detail: { examId: exam!.id, abnormal: report.abnormalCount }, requestId }, transaction);
+      await audit({ actorUserId: actor.id, action: 'exam.complete', entityType: 'exam', entityId: exam!.id, detail: { from: 'in-progress', to: 'completed', reportId: report.id }, requestId }, transaction);
+      return dtoWithEditor(report, transaction);
+    }),
+  );
+}
+
+/** A report as stored. */
+export async function getReport(id: number): Promise<ReportDto> {
+  const report = await Report.findByPk(id);
+  if (!report) throw notFound('The report');
+  return dtoWithEditor(report);
+}
+
+/** The report of an exam, if it has one. */
+export async function reportOfExam(examId: number): Promise<ReportDto | null> {
+  const report = await Report.findOne({ where: { examId } });
+  return report ? dtoWithEditor(report) : null;
+}
+
+/** What the report form shows about the exam and offers as probes. */
+export async function reportContext(examId: number): Promise<ReportContext> {
+  const { timeZone } = await clinicProfile();
+  const exam = (await Exam.findByPk(examId, {
+    include: [
+      { model: Patient, as: 'patient' },
+      { model: ExamType, as: 'examType' },
+      { model: Room, as: 'room' },
+      { model: User, as: 'sonographer', attributes: ['displayName'] },
+    ],
+  })) as (Exam & { patient: Patient; examType: ExamType; room: Room; sonographer: User }) | null;
+  if (!exam) throw notFound('The exam');
+  const scanner = await Scanner.findByPk(exam.scannerId);
+  const probes = await Probe.findAll({ where: { scannerId: scanner!.id }, order: [['kind', 'ASC'], ['id', 'ASC']] });
+  const examDate = zonedDate(exam.scheduledStart, timeZone);
+  return {
+    examId: exam.id,
+    examVersion: exam.version,
+    examStatus: exam.status,
+    accessionNumber: exam.accessionNumber,
+    examTypeName: exam.examType.name,
+    indication: exam.indication,
+    patient: { name: `${exam.patient.familyName}, ${exam.patient.givenName}`, mrn: exam.patient.mrn, sex: exam.patient.sex, birthDate: exam.patient.birthDate, ageYears: ageOn(exam.patient.birthDate, examDate) },
+    examDate,
+    when: formatInstant(exam.scheduledStart, timeZone),
+    room: exam.room.name,
+    sonographer: exam.sonographer.displayName,
+    probes: probes.map((p) => ({ id: p.id, kind: p.kind, label: p.modelLabel, frequencyMhz: `${p.minFrequencyMhz}–${p.maxFrequencyMhz} MHz` })),
+  };
+}
