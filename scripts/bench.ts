@@ -104,6 +104,11 @@ export const sections: BenchSection[] = [
     key: 'worklist',
     run: async () => (await import('./bench/worklist.ts')).worklistBench(),
   },
+  {
+    name: 'Report autosave, full echo set, 16 connections (autocannon)',
+    key: 'report',
+    run: async () => (await import('./bench/report-save.ts')).reportSaveBench(),
+  },
 ];
 
 const passes = (f: BenchFigure): boolean => (f.atLeast !== undefined ? f.value >= f.atLeast : f.value < f.target);
@@ -122,13 +127,18 @@ const format = (f: BenchFigure): string => {
 /** Run sections in order and print their figures; sets a non-zero exit code if a target is missed. */
 export async function runBench(list: readonly BenchSection[] = sections): Promise<void> {
   console.log(`Crestline benchmarks (node ${process.version})`);
-  for (const section of list) {
-    console.log(`\n${section.name}`);
-    const figures = await section.run();
-    for (const f of figures) {
-      console.log(format(f));
-      if (!passes(f)) process.exitCode = 1;
+  try {
+    for (const section of list) {
+      console.log(`\n${section.name}`);
+      const figures = await section.run();
+      for (const f of figures) {
+        console.log(format(f));
+        if (!passes(f)) process.exitCode = 1;
+      }
     }
+  } finally {
+    // Sections that needed a database and app share one; stop it (and all it started).
+    await (await import('./bench/env.ts')).stopBenchEnv();
   }
 }
 

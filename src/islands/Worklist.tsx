@@ -17,6 +17,10 @@ interface Props {
   sonographers: Array<{ id: number; name: string }>;
   /** Front desk and manager may check patients in from the list. */
   canCheckIn: boolean;
+  /** Sonographers (and the manager) start the scan of an arrived exam from the list. */
+  canStart?: boolean;
+  /** Open on one sonographer's exams (a sonographer's own list). */
+  initialSonographerId?: number;
   showPayment: boolean;
   initialRoomId?: number;
 }
@@ -24,11 +28,11 @@ interface Props {
 const col = createColumnHelper<WorklistRow>();
 const PAGE_SIZE = 25;
 
-function WorklistTable({ today, initialDay, rooms, sonographers, canCheckIn, showPayment, initialRoomId }: Props) {
+function WorklistTable({ today, initialDay, rooms, sonographers, canCheckIn, canStart = false, initialSonographerId, showPayment, initialRoomId }: Props) {
   const client = useQueryClient();
   const [day, setDay] = useState(initialDay ?? today);
   const [roomId, setRoomId] = useState<number | undefined>(initialRoomId);
-  const [sonographerId, setSonographerId] = useState<number | undefined>();
+  const [sonographerId, setSonographerId] = useState<number | undefined>(initialSonographerId);
   const [status, setStatus] = useState<ExamStatus | undefined>();
   const [page, setPage] = useState(1);
   const [sorting, setSorting] = useState<SortingState>([{ id: 'time', desc: false }]);
@@ -45,6 +49,13 @@ function WorklistTable({ today, initialDay, rooms, sonographers, canCheckIn, sho
     mutationFn: (row: WorklistRow) => api(`/api/exams/${row.id}/status`, { method: 'POST', body: { version: row.version, to: 'arrived' } }),
     onSuccess: (_d, row) => setNotice({ tone: 'ok', text: `${row.patientName} is checked in.` }),
     onError: (e) => setNotice({ tone: 'error', text: e instanceof ApiError ? e.message : 'Check-in failed.' }),
+    onSettled: () => client.invalidateQueries({ queryKey: ['worklist'] }),
+  });
+
+  const start = useMutation({
+    mutationFn: (row: WorklistRow) => api<{ reportId: number }>(`/api/exams/${row.id}/start`, { method: 'POST', body: { version: row.version } }),
+    onSuccess: (_d, row) => window.location.assign(`/exams/${row.id}/report`),
+    onError: (e) => setNotice({ tone: 'error', text: e instanceof ApiError ? e.message : 'The scan could not be started.' }),
     onSettled: () => client.invalidateQueries({ queryKey: ['worklist'] }),
   });
 
@@ -77,15 +88,34 @@ function WorklistTable({ today, initialDay, rooms, sonographers, canCheckIn, sho
       col.display({
         id: 'actions',
         header: () => <span className="sr-only">Actions</span>,
-        cell: (c) =>
-          canCheckIn && c.row.original.status === 'booked' ? (
-            <button type="button" className="btn-quiet py-1" disabled={checkIn.isPending} onClick={() => checkIn.mutate(c.row.original)}>
-              Check in<span className="sr-only"> {c.row.original.patientName}</span>
-            </button>
-          ) : null,
+        cell: (c) => {
+          const row = c.row.original;
+          if (canCheckIn && row.status === 'booked') {
+            return (
+              <button type="button" className="btn-quiet py-1" disabled={checkIn.isPending} onClick={() => checkIn.mutate(row)}>
+                Check in<span className="sr-only"> {row.patientName}</span>
+              </button>
+            );
+          }
+          if (canStart && row.status === 'arrived') {
+            return (
+              <button type="button" className="btn-primary py-1" disabled={start.isPending} onClick={() => start.mutate(row)}>
+                Start scan<span className="sr-only"> {row.patientName}</span>
+              </button>
+            );
+          }
+          if (canStart && (row.status === 'in-progress' || row.status === 'completed')) {
+            return (
+              <a className="btn-quiet py-1" href={`/exams/${row.id}/report`}>
+                {row.status === 'in-progress' ? 'Open report' : 'View report'}<span className="sr-only"> {row.patientName}</span>
+              </a>
+            );
+          }
+          return null;
+        },
       }),
     ],
-    [canCheckIn, showPayment, checkIn],
+    [canCheckIn, canStart, showPayment, checkIn, start],
   );
 
   const table = useReactTable({

@@ -1,0 +1,82 @@
+/**
+ * The report autosave under load: 16 sonographers' forms saving a full echo set at once
+ * (autocannon, 16 connections, each on its own draft and keeping its version up to date, so
+ * every save is a real re-evaluation and write, never a 409).
+ */
+import type autocannon from 'autocannon';
+import type { BenchFigure } from '../bench.ts';
+import { fullEchoInput } from '../../tests/unit/clinical/helpers.ts';
+import { addDays, zonedTimeToUtc } from '../../src/lib/time.ts';
+import { benchEnv, load, signIn, SECONDS, type BenchEnv } from './env.ts';
+
+const CONNECTIONS = 16;
+
+async function call(base: string, cookie: string, method: string, path: string, body?: unknown) {
+  const res = await fetch(base + path, { method, headers: { cookie, origin: base, 'content-type': 'application/json' }, body: body === undefined ? undefined : JSON.stringify(body) });
+  const json = (await res.json()) as Record<string, any>;
+  if (!res.ok) throw new Error(`bench: ${method} ${path} → ${res.status} ${JSON.stringify(json.error ?? json)}`);
+  return json;
+}
+
+/** Books, checks in and starts `n` echo exams in the cardiac room on weekdays a year ahead. */
+export async function draftEchoReports(e: BenchEnv, n: number): Promise<number[]> {
+  const desk = await signIn(e.url, 'desk@fernhollow.test');
+  const sono = await signIn(e.url, 'sonographer3@fernhollow.test');
+  const [roomId, scannerId, sonographerId, examTypeId, timeZone] = e
+    .sql(
+      `SELECT r.id, s.id, (SELECT id FROM crestline_bench.users WHERE email = 'sonographer3@fernhollow.test'),
+              (SELECT id FROM crestline_bench.exam_types WHERE code = 'echo-tte'),
+              JSON_UNQUOTE(JSON_EXTRACT((SELECT value FROM crestline_bench.settings WHERE \`key\` = 'clinic'), '$.timeZone'))
+         FROM crestline_bench.rooms r JOIN crestline_bench.scanners s ON s.room_id = r.id WHERE r.name LIKE '%cardiac%'`,
+    )
+    .split('\t');
+  const ids: number[] = [];
+  let day = addDays(new Date().toISOString().slice(0, 10), 365);
+  while (ids.length < n) {
+    day = addDays(day, 1);
+    if ([0, 6].includes(new Date(`${day}T12:00:00Z`).getUTCDay())) continue;
+    for (let hour = 8; hour < 17 && ids.length < n; hour++) {
+      const start = zonedTimeToUtc(day, hour, 0, timeZone!).toISOString();
+      const booked = await call(e.url, desk, 'POST', '/api/exams', {
+        patientId: 1 + (ids.length % 40), examTypeId: Number(examTypeId), referrerId: null, indication: 'Benchmark exam',
+        priority: 'routine', payer: 'insured', roomId: Number(roomId), scannerId: Number(scannerId), sonographerId: Number(sonographerId), start,
+      });
+      await call(e.url, desk, 'POST', `/api/exams/${booked.exam.id}/status`, { version: 0, to: 'arrived' });
+      ids.push((await call(e.url, sono, 'POST', `/api/exams/${booked.exam.id}/start`, { version: 1 })).reportId);
+    }
+  }
+  return ids;
+}
+
+export async function reportSaveBench(): Promise<BenchFigure[]> {
+  const e = await benchEnv();
+  const reports = await draftEchoReports(e, CONNECTIONS);
+  const cookie = await signIn(e.url, 'sonographer3@fernhollow.test');
+  const set = fullEchoInput('female');
+  const body = { measurements: set.measurements, nodules: [], heightCm: 165, weightKg: 62, probeId: null };
+  let next = 0;
+  // Each connection takes one draft and carries its version from answer to answer.
+  const requests: autocannon.Request[] = [
+    {
+      setupRequest: (req, ctx) => {
+        const context = ctx as Record<string, number>;
+        if (context.reportId === undefined) {
+          context.reportId = reports[next++ % reports.length]!;
+          context.version = 0;
+        }
+        return { ...req, method: 'PUT', path: `/api/reports/${context.reportId}/draft`, body: JSON.stringify({ ...body, version: context.version }) };
+      },
+      onResponse: (status, resBody, ctx) => {
+        const context = ctx as Record<string, number>;
+        if (status === 200) context.version = (JSON.parse(resBody) as { report: { version: number } }).report.version;
+      },
+    },
+  ];
+  console.log(`  (${CONNECTIONS} connections, ${SECONDS} s, each saving its own echo draft)`);
+  const result = await load({ url: `${e.url}/api/reports/${reports[0]}/draft`, cookie, connections: CONNECTIONS, method: 'PUT', requests });
+  if (result.errors) console.log(`  (non-2xx or errors: ${result.errors})`);
+  return [
+    { label: 'saves', value: result.rps, unit: 'req/s', target: Infinity },
+    { label: 'save p95', value: result.p95, unit: 'ms', target: 50 },
+  ];
+}
