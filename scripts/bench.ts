@@ -109,6 +109,11 @@ export const sections: BenchSection[] = [
     key: 'report',
     run: async () => (await import('./bench/report-save.ts')).reportSaveBench(),
   },
+  {
+    name: 'Echo form in Chromium: keystroke to derived value, and the page\'s JavaScript',
+    key: 'report',
+    run: async () => (await import('./bench/report-form.ts')).reportFormBench(),
+  },
 ];
 
 const passes = (f: BenchFigure): boolean => (f.atLeast !== undefined ? f.value >= f.atLeast : f.value < f.target);

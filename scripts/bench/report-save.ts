@@ -19,7 +19,7 @@ async function call(base: string, cookie: string, method: string, path: string, 
 }
 
 /** Books, checks in and starts `n` echo exams in the cardiac room on weekdays a year ahead. */
-export async function draftEchoReports(e: BenchEnv, n: number): Promise<number[]> {
+export async function draftEchoReports(e: BenchEnv, n: number, daysAhead = 365): Promise<number[]> {
   const desk = await signIn(e.url, 'desk@fernhollow.test');
   const sono = await signIn(e.url, 'sonographer3@fernhollow.test');
   const [roomId, scannerId, sonographerId, examTypeId, timeZone] = e
@@ -31,7 +31,7 @@ export async function draftEchoReports(e: BenchEnv, n: number): Promise<number[]
     )
     .split('\t');
   const ids: number[] = [];
-  let day = addDays(new Date().toISOString().slice(0, 10), 365);
+  let day = addDays(new Date().toISOString().slice(0, 10), daysAhead);
   while (ids.length < n) {
     day = addDays(day, 1);
     if ([0, 6].includes(new Date(`${day}T12:00:00Z`).getUTCDay())) continue;
