@@ -14,7 +14,8 @@ module.exports = {
       'attachments',
       {
         id: { type: Sequelize.INTEGER, autoIncrement: true, primaryKey: true },
-        exam_id: { type: Sequelize.INTEGER, allowNull: true, references: { model: 'exams', key: 'id' }, onUpdate: 'CASCADE', onDelete: 'RESTRICT' },
+        // RESTRICT on update too: MariaDB allows no CHECK on a column with a cascading key (ids never change anyway).
+        exam_id: { type: Sequelize.INTEGER, allowNull: true, references: { model: 'exams', key: 'id' }, onUpdate: 'RESTRICT', onDelete: 'RESTRICT' },
         match_status: { type: Sequelize.ENUM('matched', 'unmatched'), allowNull: false, defaultValue: 'matched' },
         kind: { type: Sequelize.ENUM('dicom', 'image'), allowNull: false },
         source: { type: Sequelize.ENUM('upload', 'network'), allowNull: false },
