@@ -9,6 +9,9 @@ import { closeTestDb, testDb } from '../helpers/db';
 import { zonedTimeToUtc, addDays } from '../../src/lib/time';
 import { TZ } from '../helpers/booking';
 
+// Other test files leave booking mail pending (no worker runs during integration tests), so
+// each delivery here takes every due message, not the default batch of 20 oldest.
+const ALL = 10_000;
 let c: Catalog;
 let patient: Patient;
 const maildev = () => process.env.MAILDEV_URL!;
@@ -42,7 +45,7 @@ describe('patient e-mail through the outbox', () => {
     expect(res.status).toBe(201);
     const queued = await OutboxMessage.findOne({ where: { examId: res.body.exam.id, kind: 'booking' } });
     expect(queued!.status).toBe('pending');
-    await deliverDueMail(smtp(), { workerId: 'test-mail' });
+    await deliverDueMail(smtp(), { workerId: 'test-mail', batch: ALL });
     const mail = (await inbox()).find((m) => m.to[0]!.address === patient.email && m.text.includes(res.body.exam.accessionNumber));
     expect(mail).toBeDefined();
     const prep = c.types['abdomen-complete']!.preparationText;
@@ -56,7 +59,7 @@ describe('patient e-mail through the outbox', () => {
     const res = await book(bookingBody(c, { patientId: patient.id, start: at(testDay(15), 11, 0), type: 'thyroid' }));
     expect(res.status).toBe(201);
     const down = createTransport({ host: '127.0.0.1', port: await closedPort(), secure: false });
-    const first = await deliverDueMail(down, { workerId: 'test-down' });
+    const first = await deliverDueMail(down, { workerId: 'test-down', batch: ALL });
     expect(first.failed).toBeGreaterThanOrEqual(1);
     const row = (await OutboxMessage.findOne({ where: { examId: res.body.exam.id } }))!;
     expect(row).toMatchObject({ status: 'pending', attempts: 1 });
@@ -64,11 +67,11 @@ describe('patient e-mail through the outbox', () => {
     expect(row.lastError).toMatch(/^E[A-Z]+$/);
     expect(row.nextAttemptAt.getTime()).toBeGreaterThan(Date.now());
     // Not due yet: a worker looking now sends nothing for it.
-    await deliverDueMail(smtp(), { workerId: 'test-up' });
+    await deliverDueMail(smtp(), { workerId: 'test-up', batch: ALL });
     expect((await OutboxMessage.findByPk(row.id))!.status).toBe('pending');
     // Later, with the mail server back, it goes out exactly once.
-    await deliverDueMail(smtp(), { workerId: 'test-up', now: new Date(Date.now() + 120_000) });
-    await deliverDueMail(smtp(), { workerId: 'test-up', now: new Date(Date.now() + 240_000) });
+    await deliverDueMail(smtp(), { workerId: 'test-up', batch: ALL, now: new Date(Date.now() + 120_000) });
+    await deliverDueMail(smtp(), { workerId: 'test-up', batch: ALL, now: new Date(Date.now() + 240_000) });
     expect((await OutboxMessage.findByPk(row.id))!.status).toBe('sent');
     const copies = (await inbox()).filter((m) => m.subject.includes('thyroid') && m.text.includes(res.body.exam.accessionNumber));
     expect(copies).toHaveLength(1);
