@@ -105,7 +105,7 @@ export const sections: BenchSection[] = [
     run: async () => (await import('./bench/worklist.ts')).worklistBench(),
   },
   {
-    name: 'Report autosave, full echo set, 16 connections (autocannon)',
+    name: 'Report autosave, full echo set, 16 connections',
     key: 'report',
     run: async () => (await import('./bench/report-save.ts')).reportSaveBench(),
   },

@@ -112,8 +112,32 @@ export async function load(opts: { url: string; cookie: string; connections: num
     instance.on('response', (_client, status, _bytes, ms) => {
       if (status === 200) latencies.push(ms);
     });
+
   });
   latencies.sort((a, b) => a - b);
   const p95 = latencies[Math.min(latencies.length - 1, Math.floor(latencies.length * 0.95))] ?? NaN;
   return { rps: result.requests.average, p95, errors: result.non2xx + result.errors + result.timeouts };
+}
+
+/**
+ * A closed-loop load of `connections` clients for SECONDS, each sending its next request as soon
+ * as the previous answer is read (for requests that depend on the previous answer, like saves
+ * carrying a version). Node's fetch keeps connections alive, one per client here.
+ */
+export async function closedLoop(connections: number, step: (client: number) => Promise<boolean>): Promise<LoadResult> {
+  const latencies: number[] = [];
+  let errors = 0;
+  const until = Date.now() + SECONDS * 1000;
+  await Promise.all(
+    Array.from({ length: connections }, async (_, client) => {
+      while (Date.now() < until) {
+        const t0 = performance.now();
+        const ok = await step(client).catch(() => false);
+        if (ok) latencies.push(performance.now() - t0);
+        else errors += 1;
+      }
+    }),
+  );
+  latencies.sort((a, b) => a - b);
+  return { rps: latencies.length / SECONDS, p95: latencies[Math.floor(latencies.length * 0.95)] ?? NaN, errors };
 }

@@ -1,13 +1,13 @@
 /**
  * The report autosave under load: 16 sonographers' forms saving a full echo set at once
- * (autocannon, 16 connections, each on its own draft and keeping its version up to date, so
- * every save is a real re-evaluation and write, never a 409).
+ * (16 clients in a closed loop, each on its own draft and keeping its version up to date, so
+ * every save is a real re-evaluation and write, never a 409; autocannon cannot carry a value
+ * from one answer into the next request of the same connection).
  */
-import type autocannon from 'autocannon';
 import type { BenchFigure } from '../bench.ts';
 import { fullEchoInput } from '../../tests/unit/clinical/helpers.ts';
 import { addDays, zonedTimeToUtc } from '../../src/lib/time.ts';
-import { benchEnv, load, signIn, SECONDS, type BenchEnv } from './env.ts';
+import { benchEnv, closedLoop, signIn, SECONDS, type BenchEnv } from './env.ts';
 
 const CONNECTIONS = 16;
 
@@ -54,26 +54,21 @@ export async function reportSaveBench(): Promise<BenchFigure[]> {
   const cookie = await signIn(e.url, 'sonographer3@fernhollow.test');
   const set = fullEchoInput('female');
   const body = { measurements: set.measurements, nodules: [], heightCm: 165, weightKg: 62, probeId: null };
-  let next = 0;
-  // Each connection takes one draft and carries its version from answer to answer.
-  const requests: autocannon.Request[] = [
-    {
-      setupRequest: (req, ctx) => {
-        const context = ctx as Record<string, number>;
-        if (context.reportId === undefined) {
-          context.reportId = reports[next++ % reports.length]!;
-          context.version = 0;
-        }
-        return { ...req, method: 'PUT', path: `/api/reports/${context.reportId}/draft`, body: JSON.stringify({ ...body, version: context.version }) };
-      },
-      onResponse: (status, resBody, ctx) => {
-        const context = ctx as Record<string, number>;
-        if (status === 200) context.version = (JSON.parse(resBody) as { report: { version: number } }).report.version;
-      },
-    },
-  ];
+  // Each client owns one draft and carries its version from answer to answer, as the form does;
+  // every save changes a value (LVIDd 5.0 ↔ 5.1 cm), so each one is a real re-evaluation and write.
+  const versions = reports.map(() => 0);
   console.log(`  (${CONNECTIONS} connections, ${SECONDS} s, each saving its own echo draft)`);
-  const result = await load({ url: `${e.url}/api/reports/${reports[0]}/draft`, cookie, connections: CONNECTIONS, method: 'PUT', requests });
+  const result = await closedLoop(CONNECTIONS, async (client) => {
+    const res = await fetch(`${e.url}/api/reports/${reports[client]}/draft`, {
+      method: 'PUT',
+      headers: { cookie, origin: e.url, 'content-type': 'application/json' },
+      body: JSON.stringify({ ...body, measurements: { ...body.measurements, lviddCm: versions[client]! % 2 ? 5.1 : 5.0 }, version: versions[client] }),
+    });
+    const answer = (await res.json()) as { report?: { version: number } };
+    if (res.status !== 200 || !answer.report) return false;
+    versions[client] = answer.report.version;
+    return true;
+  });
   if (result.errors) console.log(`  (non-2xx or errors: ${result.errors})`);
   return [
     { label: 'saves', value: result.rps, unit: 'req/s', target: Infinity },

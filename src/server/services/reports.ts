@@ -1,7 +1,7 @@
-import type { Transaction } from 'sequelize';
+import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '../../db/connection';
 import { Exam, ExamType, Patient, Probe, Report, Room, Scanner, User } from '../../db/models';
-import { evaluate, getTemplate, missingRequired, REFERENCE_SET_VERSION, type EvaluationSuccess, type TemplateId } from '../../lib/clinical';
+import { evaluate, getTemplate, missingRequired, REFERENCE_SET_VERSION, type EvaluationSuccess, type ReferenceRange, type TemplateId } from '../../lib/clinical';
 import { canMoveExam } from '../../lib/exam-status';
 import type { ReportContext, ReportDto, SaveDraftInput, StoredEvaluation } from '../../lib/schemas/reports';
 import type { SessionUser } from '../../lib/session-user';
@@ -57,13 +57,19 @@ const stored = (e: EvaluationSuccess): StoredEvaluation => ({
  * Runs the engine on a report's entries with the exam's patient factors and the stored
  * reference set; values outside plausible bounds are a 400 naming each field.
  */
-async function evaluateEntries(exam: Exam, patient: Patient, templateId: string, entries: Pick<SaveDraftInput, 'measurements' | 'nodules' | 'heightCm' | 'weightKg'>, timeZone: string): Promise<EvaluationSuccess> {
+function evaluateEntries(
+  facts: { scheduledStart: Date; sex: Patient['sex']; birthDate: string },
+  templateId: string,
+  entries: Pick<SaveDraftInput, 'measurements' | 'nodules' | 'heightCm' | 'weightKg'>,
+  timeZone: string,
+  referenceRanges: readonly ReferenceRange[],
+): EvaluationSuccess {
   const result = evaluate({
     templateId,
     measurements: entries.measurements,
     nodules: entries.nodules as never,
-    patient: { sex: patient.sex, birthDate: patient.birthDate, examDate: zonedDate(exam.scheduledStart, timeZone), heightCm: entries.heightCm, weightKg: entries.weightKg },
-    referenceRanges: await referenceSet(REFERENCE_SET_VERSION),
+    patient: { sex: facts.sex, birthDate: facts.birthDate, examDate: zonedDate(facts.scheduledStart, timeZone), heightCm: entries.heightCm, weightKg: entries.weightKg },
+    referenceRanges,
   });
   if (!result.ok) throw new HttpError(400, 'VALIDATION', 'Some values are outside what is plausible; check the units.', result.fieldErrors);
   return result;
@@ -126,44 +132,84 @@ async function lockReport(id: number, version: number, transaction: Transaction)
   return report;
 }
 
+/** The facts of an exam a report evaluation needs, in one narrow read. */
+async function examFactsFor(examId: number, transaction: Transaction): Promise<{ scannerId: number; scheduledStart: Date; sex: Patient['sex']; birthDate: string }> {
+  const [row] = await db().query<{ scanner_id: number; scheduled_start: Date; sex: Patient['sex']; birth_date: string }>(
+    'SELECT e.scanner_id, e.scheduled_start, p.sex, p.birth_date FROM exams e JOIN patients p ON p.id = e.patient_id WHERE e.id = ?',
+    { replacements: [examId], type: QueryTypes.SELECT, transaction },
+  );
+  if (!row) throw notFound('The exam');
+  return { scannerId: row.scanner_id, scheduledStart: new Date(row.scheduled_start), sex: row.sex, birthDate: String(row.birth_date).slice(0, 10) };
+}
+
 /**
  * Autosave of a draft: the server recomputes with the same engine and stores the entries, the
  * evaluation, the template and reference-set versions. Refuses stale versions (409) and values
- * outside plausible bounds (400).
+ * outside plausible bounds (400). The busiest write in the app (every pause in typing), so it
+ * reads and writes narrowly: no model instances, no re-read of what it just wrote.
  */
 export async function saveDraft(actor: SessionUser, reportId: number, input: SaveDraftInput, requestId: string): Promise<ReportDto> {
-  const { timeZone } = await clinicProfile();
+  // Read before the transaction: inside it, a second pool connection could wait forever.
+  const [{ timeZone }, referenceRanges] = await Promise.all([clinicProfile(), referenceSet(REFERENCE_SET_VERSION)]);
   return db().transaction(async (transaction) => {
-    const report = await lockReport(reportId, input.version, transaction);
-    if (report.status !== 'draft') throw new HttpError(409, 'CONFLICT', `This report is ${report.status} and can no longer be edited here.`);
-    const exam = await Exam.findByPk(report.examId, { transaction });
-    const patient = await Patient.findByPk(exam!.patientId, { transaction });
-    if (input.probeId !== null) {
-      const probe = await Probe.findByPk(input.probeId, { transaction });
-      if (!probe || probe.scannerId !== exam!.scannerId) throw new HttpError(400, 'VALIDATION', 'Some values need correcting.', { probeId: 'Choose a probe of this room’s scanner.' });
+    const head = (await Report.findByPk(reportId, { attributes: ['id', 'examId', 'version', 'status', 'templateId', 'probeKind', 'createdAt', 'submittedAt'], transaction, lock: transaction.LOCK.UPDATE, raw: true })) as Pick<
+      Report,
+      'id' | 'examId' | 'version' | 'status' | 'templateId' | 'probeKind' | 'createdAt' | 'submittedAt'
+    > | null;
+    if (!head) throw notFound('The report');
+    if (head.version !== input.version) {
+      const current = await Report.findByPk(reportId, { transaction });
+      // The form keeps what was typed and shows who saved meanwhile.
+      throw new HttpError(409, 'STALE', stale('report').message, undefined, { current: await dtoWithEditor(current!, transaction) });
     }
-    const result = await evaluateEntries(exam!, patient!, report.templateId, input, timeZone);
-    const probe = input.probeId ? await Probe.findByPk(input.probeId, { transaction }) : null;
-    await report.update(
-      {
-        measurements: input.measurements,
-        nodules: input.nodules,
-        heightCm: input.heightCm,
-        weightKg: input.weightKg,
-        probeId: input.probeId,
-        probeKind: probe?.kind ?? report.probeKind,
-        evaluation: stored(result),
-        findingsText: result.findings.join('\n'),
-        abnormalCount: abnormal(result),
-        templateVersion: getTemplate(report.templateId as TemplateId)!.version,
-        referenceSetVersion: result.referenceSetVersion,
-        updatedBy: actor.id,
-        version: report.version + 1,
-      },
-      { transaction },
-    );
-    await audit({ actorUserId: actor.id, action: 'report.save', entityType: 'report', entityId: report.id, detail: { examId: report.examId, version: report.version, fields: Object.keys(input.measurements).length, nodules: input.nodules.length }, requestId }, transaction);
-    return dtoWithEditor(report, transaction);
+    if (head.status !== 'draft') throw new HttpError(409, 'CONFLICT', `This report is ${head.status} and can no longer be edited here.`);
+    const facts = await examFactsFor(head.examId, transaction);
+    let probeKind = head.probeKind;
+    if (input.probeId !== null) {
+      const probe = (await Probe.findByPk(input.probeId, { attributes: ['scannerId', 'kind'], transaction, raw: true })) as Pick<Probe, 'scannerId' | 'kind'> | null;
+      if (!probe || probe.scannerId !== facts.scannerId) throw new HttpError(400, 'VALIDATION', 'Some values need correcting.', { probeId: 'Choose a probe of this room’s scanner.' });
+      probeKind = probe.kind;
+    }
+    const result = evaluateEntries(facts, head.templateId, input, timeZone, referenceRanges);
+    const now = new Date();
+    const values = {
+      measurements: input.measurements,
+      nodules: input.nodules,
+      heightCm: input.heightCm,
+      weightKg: input.weightKg,
+      probeId: input.probeId,
+      probeKind,
+      evaluation: stored(result),
+      findingsText: result.findings.join('\n'),
+      abnormalCount: abnormal(result),
+      templateVersion: getTemplate(head.templateId as TemplateId)!.version,
+      referenceSetVersion: result.referenceSetVersion,
+      updatedBy: actor.id,
+      version: head.version + 1,
+    };
+    await Report.update({ ...values, updatedAt: now }, { where: { id: reportId }, transaction });
+    await audit({ actorUserId: actor.id, action: 'report.save', entityType: 'report', entityId: reportId, detail: { examId: head.examId, version: head.version, fields: Object.keys(input.measurements).length, nodules: input.nodules.length }, requestId }, transaction);
+    return {
+      id: reportId,
+      examId: head.examId,
+      status: head.status,
+      version: values.version,
+      templateId: head.templateId as ReportDto['templateId'],
+      templateVersion: values.templateVersion,
+      referenceSetVersion: values.referenceSetVersion,
+      measurements: values.measurements,
+      nodules: values.nodules,
+      heightCm: values.heightCm,
+      weightKg: values.weightKg,
+      probeId: values.probeId,
+      probeKind: values.probeKind,
+      evaluation: values.evaluation,
+      findingsText: values.findingsText,
+      abnormalCount: values.abnormalCount,
+      updatedAt: now.toISOString(),
+      updatedBy: actor.displayName,
+      submittedAt: null,
+    };
   });
 }
 
@@ -173,7 +219,7 @@ export async function saveDraft(actor: SessionUser, reportId: number, input: Sav
  * the reading queue.
  */
 export async function submitPreliminary(actor: SessionUser, reportId: number, version: number, requestId: string): Promise<ReportDto> {
-  const { timeZone } = await clinicProfile();
+  const [{ timeZone }, referenceRanges] = await Promise.all([clinicProfile(), referenceSet(REFERENCE_SET_VERSION)]);
   return afterChange(
     db().transaction(async (transaction) => {
       const report = await lockReport(reportId, version, transaction);
@@ -189,8 +235,8 @@ export async function submitPreliminary(actor: SessionUser, reportId: number, ve
           Object.fromEntries(missing.map((c) => [`measurements.${c}`, 'Required for the preliminary report.'])),
         );
       }
-      const patient = await Patient.findByPk(exam!.patientId, { transaction });
-      const result = await evaluateEntries(exam!, patient!, report.templateId, { ...report.get(), nodules: report.nodules as SaveDraftInput['nodules'] }, timeZone);
+      const facts = await examFactsFor(exam!.id, transaction);
+      const result = evaluateEntries(facts, report.templateId, { ...report.get(), nodules: report.nodules as SaveDraftInput['nodules'] }, timeZone, referenceRanges);
       const now = new Date();
       await report.update(
         { status: 'preliminary', evaluation: stored(result), findingsText: result.findings.join('\n'), abnormalCount: abnormal(result), submittedBy: actor.id, submittedAt: now, updatedBy: actor.id, version: report.version + 1 },
