@@ -9,6 +9,7 @@ import type { Role } from '../src/lib/roles';
 import { accessionFrom, mrnFromNumber, uidFromUuid } from '../src/lib/identifiers';
 import { addDays, zonedDate, zonedTimeToUtc } from '../src/lib/time';
 import { CLINIC, DEMO_PASSWORD, DEMO_USERS, EXAM_TYPES, INDICATIONS, ROOMS } from './demo-clinic-data';
+import { seedReport } from './demo-reports';
 
 /**
  * The invented demo clinic: everything a person needs to try Crestline. Deterministic for a
@@ -143,10 +144,11 @@ async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transact
         // Past exams were billed to insurers; about a third of those still ahead are self-pay
         // with the deposit not yet taken, so the desk has deposits to collect in the demo.
         const selfPay = status === 'booked' && faker.datatype.boolean(0.35);
-        await Exam.create(
+        const patient = queue.pop()!;
+        const exam = await Exam.create(
           {
             accessionNumber: accessionFrom(day, n),
-            patientId: queue.pop()!.id,
+            patientId: patient.id,
             examTypeId: type.id,
             referrerId: faker.helpers.arrayElement(w.referrers.slice(0, faker.datatype.boolean(0.3) ? 1 : 10)).id,
             roomId: r.room.id,
@@ -169,6 +171,9 @@ async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transact
           },
           { transaction },
         );
+        if (status === 'completed' || status === 'in-progress') {
+          await seedReport(faker, { exam, patient, templateId: type.templateId, timeZone: CLINIC.timeZone, sonographerId: r.sonographer.id }, transaction);
+        }
         // Leave a gap now and then, so the schedule shows free time.
         minute += type.durationMinutes + (faker.datatype.boolean(0.3) ? 15 * faker.number.int({ min: 1, max: 4 }) : 0);
       }
