@@ -1,9 +1,9 @@
 import { expect, test } from '@playwright/test';
-import { demo, hydrated, open, signInAs } from './support';
+import { demo, hydrated, open, signInAs, navigate } from './support';
 
 test('the front desk books a self-pay abdomen exam, takes the deposit, and checks the patient in', async ({ page }) => {
   await signInAs(page, demo('desk').email);
-  await page.getByRole('navigation', { name: 'Main', exact: true }).getByRole('link', { name: 'Worklist' }).click();
+  await navigate(page, 'Worklist', '/worklist');
   await page.getByRole('link', { name: 'Book an exam' }).click();
   await hydrated(page);
 

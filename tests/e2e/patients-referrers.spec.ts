@@ -1,11 +1,11 @@
 import { expect, test } from '@playwright/test';
-import { demo, signInAs } from './support';
+import { demo, signInAs, navigate } from './support';
 
 test('the front desk adds a referring clinician, is told about a taken e-mail, and deactivates the entry', async ({ page }) => {
   const stamp = Date.now();
   const email = `dr.lowen.${stamp}@referrers.test`;
   await signInAs(page, demo('desk').email);
-  await page.getByRole('navigation', { name: 'Main', exact: true }).getByRole('link', { name: 'Referring clinicians' }).click();
+  await navigate(page, 'Referring clinicians', '/referrers');
   // Wait for the island to hydrate, so the first click is not lost.
   await expect(page.locator('astro-island[ssr]')).toHaveCount(0);
   await page.getByRole('button', { name: 'New referring clinician' }).click();

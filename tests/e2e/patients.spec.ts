@@ -1,5 +1,5 @@
 import { expect, test, type Page } from '@playwright/test';
-import { demo, signInAs } from './support';
+import { demo, signInAs, navigate } from './support';
 
 // Names may not hold digits: each test spells a time stamp in letters.
 const letters = (n: number) => [...String(n)].map((d) => 'abcdefghij'[Number(d)]).join('');
@@ -29,7 +29,7 @@ async function fillNewPatient(page: Page, p: { family: string; given: string; bi
 
 test('the front desk finds a patient by part of the name and opens the record', async ({ page }) => {
   await signInAs(page, demo('desk').email);
-  await page.getByRole('navigation', { name: 'Main', exact: true }).getByRole('link', { name: 'Patients' }).click();
+  await navigate(page, 'Patients', '/patients');
   await expect(page.getByRole('heading', { name: 'Patients', level: 1 })).toBeVisible();
   await ready(page);
 
@@ -137,7 +137,7 @@ test('an edit made by someone else first is refused, and what was typed stays in
 
 test('a sonographer sees the patient list but cannot register or edit patients', async ({ page }) => {
   await signInAs(page, demo('sono1').email);
-  await page.getByRole('navigation', { name: 'Main', exact: true }).getByRole('link', { name: 'Patients' }).click();
+  await navigate(page, 'Patients', '/patients');
   await expect(page.getByRole('table')).toBeVisible();
   await expect(page.getByRole('link').filter({ hasText: ', ' }).first()).toBeVisible();
   await expect(page.getByRole('button', { name: 'New patient' })).toHaveCount(0);

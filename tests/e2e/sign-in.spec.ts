@@ -1,5 +1,5 @@
 import { expect, test } from '@playwright/test';
-import { demo, hydrated, open, signInAs } from './support';
+import { demo, hydrated, open, signInAs, navigate } from './support';
 
 // What each role sees in the navigation rail (src/lib/navigation.ts).
 const EXPECTED_NAV: Record<string, { role: string; sees: string[]; doesNotSee: string[] }> = {
@@ -70,7 +70,7 @@ test('signing out ends the session', async ({ page }) => {
 
 test('a reading physician looks up a reference range with its source and version', async ({ page }) => {
   await signInAs(page, demo('reader').email);
-  await page.getByRole('navigation', { name: 'Main', exact: true }).getByRole('link', { name: 'Reference ranges' }).click();
+  await navigate(page, 'Reference ranges', '/admin/reference-ranges');
   await page.getByLabel('Measurement').fill('lvmi');
   await page.getByRole('button', { name: 'Show' }).click();
   const women = page.getByRole('row', { name: /LV mass index.*Women/ });

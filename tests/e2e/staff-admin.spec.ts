@@ -1,10 +1,10 @@
 import { expect, test } from '@playwright/test';
-import { demo, open, signInAs } from './support';
+import { demo, open, signInAs, navigate } from './support';
 
 test('the manager creates a sonographer account that can then sign in', async ({ page, browser }) => {
   const email = `new-sono-${Date.now()}@tests.test`;
   await signInAs(page, demo('admin').email);
-  await page.getByRole('navigation', { name: 'Main', exact: true }).getByRole('link', { name: 'Staff & access' }).click();
+  await navigate(page, 'Staff & access', '/admin/users');
   await page.getByRole('button', { name: 'New account' }).click();
   const form = page.getByRole('form', { name: 'New account' });
   await form.getByLabel('Full name').fill('Noor Testwell');

@@ -18,6 +18,13 @@ export async function open(page: Page, path: string): Promise<void> {
   await hydrated(page);
 }
 
+/** Follows a link of the main navigation, as a person would, and waits for the new page's islands. */
+export async function navigate(page: Page, label: string, path: string): Promise<void> {
+  await page.getByRole('navigation', { name: 'Main', exact: true }).getByRole('link', { name: label }).click();
+  await page.waitForURL((url) => url.pathname === path);
+  await hydrated(page);
+}
+
 /** Signs in through the sign-in form, as a person would. */
 export async function signInAs(page: Page, email: string, password = DEMO_PASSWORD): Promise<void> {
   await open(page, '/signin');
