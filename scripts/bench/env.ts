@@ -6,6 +6,7 @@
 import autocannon from 'autocannon';
 import { randomBytes } from 'node:crypto';
 import { openSync } from 'node:fs';
+import http from 'node:http';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { stopAll } from '../lib/children.mjs';
@@ -122,22 +123,55 @@ export async function load(opts: { url: string; cookie: string; connections: num
 /**
  * A closed-loop load of `connections` clients for SECONDS, each sending its next request as soon
  * as the previous answer is read (for requests that depend on the previous answer, like saves
- * carrying a version). Node's fetch keeps connections alive, one per client here.
+ * carrying a version). Use `send()` for the requests: the load generator shares the two cores
+ * with the app and the database, and Node's fetch costs about twice as much CPU per request.
+ * With `paceMs`, each client starts a request at most every `paceMs` (a person's pace, not a flood).
  */
-export async function closedLoop(connections: number, step: (client: number) => Promise<boolean>): Promise<LoadResult> {
+export async function closedLoop(connections: number, step: (client: number) => Promise<boolean>, paceMs = 0): Promise<LoadResult> {
   const latencies: number[] = [];
   let errors = 0;
   const until = Date.now() + SECONDS * 1000;
   await Promise.all(
     Array.from({ length: connections }, async (_, client) => {
+      // Paced clients start spread over one interval (people do not type in step).
+      if (paceMs > 0) await new Promise((r) => setTimeout(r, (paceMs * client) / connections));
       while (Date.now() < until) {
         const t0 = performance.now();
         const ok = await step(client).catch(() => false);
-        if (ok) latencies.push(performance.now() - t0);
+        const took = performance.now() - t0;
+        if (ok) latencies.push(took);
         else errors += 1;
+        if (paceMs > took) await new Promise((r) => setTimeout(r, paceMs - took));
       }
     }),
   );
   latencies.sort((a, b) => a - b);
   return { rps: latencies.length / SECONDS, p95: latencies[Math.floor(latencies.length * 0.95)] ?? NaN, errors };
+}
+
+const agent = new http.Agent({ keepAlive: true, maxSockets: 64 });
+
+/** One HTTP request on a kept-alive connection, with as little client-side work as Node allows. */
+export function send(url: string, o: { method: string; cookie: string; body?: string }): Promise<{ status: number; body: string }> {
+  const u = new URL(url);
+  return new Promise((resolve, reject) => {
+    const req = http.request(
+      {
+        host: u.hostname,
+        port: u.port,
+        path: u.pathname + u.search,
+        method: o.method,
+        agent,
+        headers: { cookie: o.cookie, origin: u.origin, 'content-type': 'application/json', ...(o.body === undefined ? {} : { 'content-length': Buffer.byteLength(o.body) }) },
+      },
+      (res) => {
+        let body = '';
+        res.setEncoding('utf8');
+        res.on('data', (chunk: string) => (body += chunk));
+        res.on('end', () => resolve({ status: res.statusCode ?? 0, body }));
+      },
+    );
+    req.on('error', reject);
+    req.end(o.body);
+  });
 }

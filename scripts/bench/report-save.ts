@@ -7,7 +7,7 @@
 import type { BenchFigure } from '../bench.ts';
 import { fullEchoInput } from '../../tests/unit/clinical/helpers.ts';
 import { addDays, zonedTimeToUtc } from '../../src/lib/time.ts';
-import { benchEnv, closedLoop, signIn, SECONDS, type BenchEnv } from './env.ts';
+import { benchEnv, closedLoop, send, signIn, SECONDS, type BenchEnv } from './env.ts';
 
 const CONNECTIONS = 16;
 
@@ -58,20 +58,24 @@ export async function reportSaveBench(): Promise<BenchFigure[]> {
   // every save changes a value (LVIDd 5.0 ↔ 5.1 cm), so each one is a real re-evaluation and write.
   const versions = reports.map(() => 0);
   console.log(`  (${CONNECTIONS} connections, ${SECONDS} s, each saving its own echo draft)`);
-  const result = await closedLoop(CONNECTIONS, async (client) => {
-    const res = await fetch(`${e.url}/api/reports/${reports[client]}/draft`, {
+  const saveNext = async (client: number) => {
+    const res = await send(`${e.url}/api/reports/${reports[client]}/draft`, {
       method: 'PUT',
-      headers: { cookie, origin: e.url, 'content-type': 'application/json' },
+      cookie,
       body: JSON.stringify({ ...body, measurements: { ...body.measurements, lviddCm: versions[client]! % 2 ? 5.1 : 5.0 }, version: versions[client] }),
     });
-    const answer = (await res.json()) as { report?: { version: number } };
-    if (res.status !== 200 || !answer.report) return false;
-    versions[client] = answer.report.version;
+    if (res.status !== 200) return false;
+    versions[client] = (JSON.parse(res.body) as { report: { version: number } }).report.version;
     return true;
-  });
-  if (result.errors) console.log(`  (non-2xx or errors: ${result.errors})`);
+  };
+  const result = await closedLoop(CONNECTIONS, saveNext);
+  // The same 16 forms at the fastest pace a person produces saves (one a second each: the form
+  // saves 0.8 s after typing stops); no target, it shows what a sonographer waits in practice.
+  const paced = await closedLoop(CONNECTIONS, saveNext, 1000);
+  if (result.errors + paced.errors) console.log(`  (non-2xx or errors: ${result.errors + paced.errors})`);
   return [
     { label: 'saves', value: result.rps, unit: 'req/s', target: Infinity },
     { label: 'save p95', value: result.p95, unit: 'ms', target: 50 },
+    { label: 'save p95, 1 save/s each', value: paced.p95, unit: 'ms', target: Infinity },
   ];
 }

@@ -50,6 +50,8 @@ async function expected(exam: Exam, input: Pick<EvaluateInput, 'templateId' | 'm
 }
 
 const save = async (reportId: number, body: Record<string, unknown>) => call('PUT', `/api/reports/${reportId}/draft`, { cookie: await sessionFor('sonographer'), json: body });
+/** The stored report, as any reader gets it (the autosave answer does not echo the evaluation). */
+const storedReport = async (reportId: number) => (await call('GET', `/api/reports/${reportId}`, { cookie: await sessionFor('sonographer') })).body.report;
 
 describe('saving a draft stores exactly what the engine computes', () => {
   it('thyroid with four nodules', async () => {
@@ -77,10 +79,12 @@ describe('saving a draft stores exactly what the engine computes', () => {
     const res = await save(reportId, { version: 0, measurements: ABDOMEN, nodules: [], heightCm: null, weightKg: null, probeId: null });
     expect(res.status).toBe(200);
     const want = await expected(exam, { templateId: 'abdomen', measurements: ABDOMEN });
-    expect(res.body.report.evaluation.derived).toEqual(JSON.parse(JSON.stringify(want.derived)));
-    expect(res.body.report.evaluation.flags).toEqual(JSON.parse(JSON.stringify(want.flags)));
+    const report = await storedReport(reportId);
+    expect(report.version).toBe(res.body.report.version);
+    expect(report.evaluation.derived).toEqual(JSON.parse(JSON.stringify(want.derived)));
+    expect(report.evaluation.flags).toEqual(JSON.parse(JSON.stringify(want.flags)));
     // CLINICAL.md §1.1: spleen 12 × 7 × 4.5 cm, π/6 → 197.9 mL
-    expect(res.body.report.evaluation.derived.find((d: { code: string }) => d.code === 'spleenVolumeMl').value).toBeCloseTo(197.92, 1);
+    expect(report.evaluation.derived.find((d: { code: string }) => d.code === 'spleenVolumeMl').value).toBeCloseTo(197.92, 1);
   });
 
   it('echo, with the patient factors taken from the exam', async () => {
@@ -89,10 +93,12 @@ describe('saving a draft stores exactly what the engine computes', () => {
     const res = await save(reportId, { version: 0, measurements: input.measurements, nodules: [], heightCm: 170, weightKg: 70, probeId: null });
     expect(res.status).toBe(200);
     const want = await expected(exam, { templateId: 'echo', measurements: input.measurements, heightCm: 170, weightKg: 70 });
-    expect(res.body.report.evaluation.derived).toEqual(JSON.parse(JSON.stringify(want.derived)));
-    expect(res.body.report.evaluation.flags).toEqual(JSON.parse(JSON.stringify(want.flags)));
+    const report = await storedReport(reportId);
+    expect(report.measurements).toEqual(input.measurements);
+    expect(report.evaluation.derived).toEqual(JSON.parse(JSON.stringify(want.derived)));
+    expect(report.evaluation.flags).toEqual(JSON.parse(JSON.stringify(want.flags)));
     // CLINICAL.md §1.3 M1: LV mass 181.976 g whatever the sex; BSA 1.8181 m² (Mosteller)
-    expect(res.body.report.evaluation.derived.find((d: { code: string }) => d.code === 'lvMassG').value).toBeCloseTo(181.976, 3);
+    expect(report.evaluation.derived.find((d: { code: string }) => d.code === 'lvMassG').value).toBeCloseTo(181.976, 3);
     expect(res.body.report.abnormalCount).toBe(want.flags.filter((f) => f.status === 'low' || f.status === 'high').length);
   });
 });

@@ -1,7 +1,7 @@
 import { useEffect, useRef, useState } from 'react';
 import { api } from '../../lib/api-client';
 import { createAutosaver, type Autosaver, type SaveFailure, type SaveStatus } from '../../lib/report-form/autosave';
-import type { ReportDto } from '../../lib/schemas/reports';
+import type { DraftSavedDto, ReportDto } from '../../lib/schemas/reports';
 
 /** What one save sends: the body, and which nodule draft each sent nodule came from. */
 export interface DraftSnapshot {
@@ -20,10 +20,10 @@ export function useAutosave(reportId: number, version: number, snapshot: () => D
   const snapshotRef = useRef(snapshot);
   snapshotRef.current = snapshot;
   const saverRef = useRef<Autosaver<ReportDto> | null>(null);
-  saverRef.current ??= createAutosaver<DraftSnapshot, { report: ReportDto }, ReportDto>({
+  saverRef.current ??= createAutosaver<DraftSnapshot, { report: DraftSavedDto }, ReportDto>({
     version,
     snapshot: () => snapshotRef.current(),
-    send: (snap, v) => api<{ report: ReportDto }>(`/api/reports/${reportId}/draft`, { method: 'PUT', body: { version: v, ...snap.body } }),
+    send: (snap, v) => api<{ report: DraftSavedDto }>(`/api/reports/${reportId}/draft`, { method: 'PUT', body: { version: v, ...snap.body } }),
     versionOf: (r) => r.report.version,
     currentOf: (f: SaveFailure) => (f.details?.current as ReportDto | undefined) ?? null,
     onStatus: setStatus,

@@ -43,6 +43,12 @@ export interface ReportDto {
   submittedAt: string | null;
 }
 
+/**
+ * The answer to an autosave: what was stored, without echoing the entries and evaluation back
+ * (the form computed the same values itself; the report's GET has the stored copy).
+ */
+export type DraftSavedDto = Pick<ReportDto, 'id' | 'examId' | 'status' | 'version' | 'templateVersion' | 'referenceSetVersion' | 'abnormalCount' | 'updatedAt' | 'updatedBy'>;
+
 /** The exam facts a report form needs (patient factors come from the exam, not the form). */
 export interface ReportContext {
   examId: number;

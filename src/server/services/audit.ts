@@ -1,5 +1,5 @@
-import type { Transaction } from 'sequelize';
-import { AuditEvent } from '../../db/models';
+import { QueryTypes, type Transaction } from 'sequelize';
+import { db } from '../../db/connection';
 
 export interface AuditEntry {
   actorUserId: number | null;
@@ -11,17 +11,25 @@ export interface AuditEntry {
   requestId?: string | null;
 }
 
-/** Appends one audit event, inside the caller's transaction when given one. */
+/**
+ * Appends one audit event, inside the caller's transaction when given one. A plain INSERT (the
+ * `AuditEvent` model reads the table): every write in the app comes through here, autosaves too.
+ */
 export async function audit(entry: AuditEntry, transaction?: Transaction): Promise<void> {
-  await AuditEvent.create(
+  await db().query(
+    'INSERT INTO audit_events (at, actor_user_id, action, entity_type, entity_id, detail, request_id) VALUES (?, ?, ?, ?, ?, ?, ?)',
     {
-      actorUserId: entry.actorUserId,
-      action: entry.action,
-      entityType: entry.entityType,
-      entityId: entry.entityId == null ? null : String(entry.entityId),
-      detail: entry.detail ?? null,
-      requestId: entry.requestId ?? null,
+      replacements: [
+        new Date(),
+        entry.actorUserId,
+        entry.action,
+        entry.entityType,
+        entry.entityId == null ? null : String(entry.entityId),
+        entry.detail == null ? null : JSON.stringify(entry.detail),
+        entry.requestId ?? null,
+      ],
+      type: QueryTypes.INSERT,
+      transaction,
     },
-    { transaction },
   );
 }

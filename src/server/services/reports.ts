@@ -3,7 +3,7 @@ import { db } from '../../db/connection';
 import { Exam, ExamType, Patient, Probe, Report, Room, Scanner, User } from '../../db/models';
 import { evaluate, getTemplate, missingRequired, REFERENCE_SET_VERSION, type EvaluationSuccess, type ReferenceRange, type TemplateId } from '../../lib/clinical';
 import { canMoveExam } from '../../lib/exam-status';
-import type { ReportContext, ReportDto, SaveDraftInput, StoredEvaluation } from '../../lib/schemas/reports';
+import type { DraftSavedDto, ReportContext, ReportDto, SaveDraftInput, StoredEvaluation } from '../../lib/schemas/reports';
 import type { SessionUser } from '../../lib/session-user';
 import { ageOn, formatInstant, zonedDate } from '../../lib/time';
 import { HttpError, notFound, ruleBroken, stale } from '../http/errors';
@@ -142,75 +142,104 @@ async function examFactsFor(examId: number, transaction: Transaction): Promise<{
   return { scannerId: row.scanner_id, scheduledStart: new Date(row.scheduled_start), sex: row.sex, birthDate: String(row.birth_date).slice(0, 10) };
 }
 
+/** What an autosave needs before evaluating, in one read: the report's head, the exam's facts and the chosen probe. */
+async function draftHead(reportId: number, probeId: number | null) {
+  const [row] = await db().query<{
+    version: number;
+    status: Report['status'];
+    template_id: string;
+    exam_id: number;
+    probe_kind: Report['probeKind'];
+    scanner_id: number;
+    scheduled_start: Date;
+    sex: Patient['sex'];
+    birth_date: string;
+    chosen_scanner_id: number | null;
+    chosen_kind: Report['probeKind'];
+  }>(
+    `SELECT r.version, r.status, r.template_id, r.exam_id, r.probe_kind, e.scanner_id, e.scheduled_start, p.sex, p.birth_date,
+            pr.scanner_id AS chosen_scanner_id, pr.kind AS chosen_kind
+       FROM reports r JOIN exams e ON e.id = r.exam_id JOIN patients p ON p.id = e.patient_id
+       LEFT JOIN probes pr ON pr.id = ?
+      WHERE r.id = ?`,
+    { replacements: [probeId, reportId], type: QueryTypes.SELECT },
+  );
+  return row;
+}
+
+/** The 409 for a save based on an older version: the form keeps what was typed and shows who saved meanwhile. */
+async function staleSave(reportId: number): Promise<never> {
+  const current = await Report.findByPk(reportId);
+  if (!current) throw notFound('The report');
+  if (current.status !== 'draft') throw new HttpError(409, 'CONFLICT', `This report is ${current.status} and can no longer be edited here.`);
+  const err = stale('report');
+  throw new HttpError(409, err.code, err.message, undefined, { current: await dtoWithEditor(current) });
+}
+
 /**
  * Autosave of a draft: the server recomputes with the same engine and stores the entries, the
  * evaluation, the template and reference-set versions. Refuses stale versions (409) and values
- * outside plausible bounds (400). The busiest write in the app (every pause in typing), so it
- * reads and writes narrowly: no model instances, no re-read of what it just wrote.
+ * outside plausible bounds (400).
+ *
+ * The busiest write in the app (every pause in typing), so it does the least that is safe: one
+ * read of what the evaluation needs, then a transaction holding a single guarded UPDATE (it
+ * applies only to the version the form saw, still a draft; the row lock it takes is the whole
+ * concurrency control) and the audit event. Nothing is re-read; the answer says what was stored.
  */
-export async function saveDraft(actor: SessionUser, reportId: number, input: SaveDraftInput, requestId: string): Promise<ReportDto> {
-  // Read before the transaction: inside it, a second pool connection could wait forever.
-  const [{ timeZone }, referenceRanges] = await Promise.all([clinicProfile(), referenceSet(REFERENCE_SET_VERSION)]);
-  return db().transaction(async (transaction) => {
-    const head = (await Report.findByPk(reportId, { attributes: ['id', 'examId', 'version', 'status', 'templateId', 'probeKind', 'createdAt', 'submittedAt'], transaction, lock: transaction.LOCK.UPDATE, raw: true })) as Pick<
-      Report,
-      'id' | 'examId' | 'version' | 'status' | 'templateId' | 'probeKind' | 'createdAt' | 'submittedAt'
-    > | null;
-    if (!head) throw notFound('The report');
-    if (head.version !== input.version) {
-      const current = await Report.findByPk(reportId, { transaction });
-      // The form keeps what was typed and shows who saved meanwhile.
-      throw new HttpError(409, 'STALE', stale('report').message, undefined, { current: await dtoWithEditor(current!, transaction) });
-    }
-    if (head.status !== 'draft') throw new HttpError(409, 'CONFLICT', `This report is ${head.status} and can no longer be edited here.`);
-    const facts = await examFactsFor(head.examId, transaction);
-    let probeKind = head.probeKind;
-    if (input.probeId !== null) {
-      const probe = (await Probe.findByPk(input.probeId, { attributes: ['scannerId', 'kind'], transaction, raw: true })) as Pick<Probe, 'scannerId' | 'kind'> | null;
-      if (!probe || probe.scannerId !== facts.scannerId) throw new HttpError(400, 'VALIDATION', 'Some values need correcting.', { probeId: 'Choose a probe of this room’s scanner.' });
-      probeKind = probe.kind;
-    }
-    const result = evaluateEntries(facts, head.templateId, input, timeZone, referenceRanges);
-    const now = new Date();
-    const values = {
-      measurements: input.measurements,
-      nodules: input.nodules,
-      heightCm: input.heightCm,
-      weightKg: input.weightKg,
-      probeId: input.probeId,
-      probeKind,
-      evaluation: stored(result),
-      findingsText: result.findings.join('\n'),
-      abnormalCount: abnormal(result),
-      templateVersion: getTemplate(head.templateId as TemplateId)!.version,
-      referenceSetVersion: result.referenceSetVersion,
-      updatedBy: actor.id,
-      version: head.version + 1,
-    };
-    await Report.update({ ...values, updatedAt: now }, { where: { id: reportId }, transaction });
-    await audit({ actorUserId: actor.id, action: 'report.save', entityType: 'report', entityId: reportId, detail: { examId: head.examId, version: head.version, fields: Object.keys(input.measurements).length, nodules: input.nodules.length }, requestId }, transaction);
-    return {
-      id: reportId,
-      examId: head.examId,
-      status: head.status,
-      version: values.version,
-      templateId: head.templateId as ReportDto['templateId'],
-      templateVersion: values.templateVersion,
-      referenceSetVersion: values.referenceSetVersion,
-      measurements: values.measurements,
-      nodules: values.nodules,
-      heightCm: values.heightCm,
-      weightKg: values.weightKg,
-      probeId: values.probeId,
-      probeKind: values.probeKind,
-      evaluation: values.evaluation,
-      findingsText: values.findingsText,
-      abnormalCount: values.abnormalCount,
-      updatedAt: now.toISOString(),
-      updatedBy: actor.displayName,
-      submittedAt: null,
-    };
+export async function saveDraft(actor: SessionUser, reportId: number, input: SaveDraftInput, requestId: string): Promise<DraftSavedDto> {
+  const [{ timeZone }, referenceRanges, head] = await Promise.all([clinicProfile(), referenceSet(REFERENCE_SET_VERSION), draftHead(reportId, input.probeId)]);
+  if (!head) throw notFound('The report');
+  if (head.version !== input.version || head.status !== 'draft') return staleSave(reportId);
+  if (input.probeId !== null && head.chosen_scanner_id !== head.scanner_id) {
+    throw new HttpError(400, 'VALIDATION', 'Some values need correcting.', { probeId: 'Choose a probe of this room’s scanner.' });
+  }
+  const facts = { scheduledStart: new Date(head.scheduled_start), sex: head.sex, birthDate: String(head.birth_date).slice(0, 10) };
+  const result = evaluateEntries(facts, head.template_id, input, timeZone, referenceRanges);
+  const saved: DraftSavedDto = {
+    id: reportId,
+    examId: head.exam_id,
+    status: 'draft',
+    version: head.version + 1,
+    templateVersion: getTemplate(head.template_id as TemplateId)!.version,
+    referenceSetVersion: result.referenceSetVersion,
+    abnormalCount: abnormal(result),
+    updatedAt: new Date().toISOString(),
+    updatedBy: actor.displayName,
+  };
+  const applied = await db().transaction(async (transaction) => {
+    const [, changed] = await db().query(
+      `UPDATE reports SET measurements = ?, nodules = ?, height_cm = ?, weight_kg = ?, probe_id = ?, probe_kind = ?, evaluation = ?,
+              findings_text = ?, abnormal_count = ?, template_version = ?, reference_set_version = ?, updated_by = ?,
+              version = version + 1, updated_at = ?
+        WHERE id = ? AND version = ? AND status = 'draft'`,
+      {
+        replacements: [
+          JSON.stringify(input.measurements),
+          JSON.stringify(input.nodules),
+          input.heightCm,
+          input.weightKg,
+          input.probeId,
+          input.probeId === null ? head.probe_kind : head.chosen_kind,
+          JSON.stringify(stored(result)),
+          result.findings.join('\n'),
+          saved.abnormalCount,
+          saved.templateVersion,
+          saved.referenceSetVersion,
+          actor.id,
+          new Date(saved.updatedAt),
+          reportId,
+          input.version,
+        ],
+        type: QueryTypes.UPDATE,
+        transaction,
+      },
+    );
+    // Someone saved (or submitted) between the read and the write: nothing was written.
+    if (changed !== 1) return false;
+    await audit({ actorUserId: actor.id, action: 'report.save', entityType: 'report', entityId: reportId, detail: { examId: head.exam_id, version: input.version, fields: Object.keys(input.measurements).length, nodules: input.nodules.length }, requestId }, transaction);
+    return true;
   });
+  return applied ? saved : staleSave(reportId);
 }
 
 /**
