@@ -168,6 +168,9 @@ async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transact
             priceCents: type.selfPayPriceCents,
             currency: type.currency,
             cancelReason: status === 'cancelled' ? 'Patient asked to rebook' : null,
+            // Booked one to three weeks before the exam (and never after now), so the age of
+            // each request in the reading queue and the turnaround figures look like a clinic's.
+            createdAt: new Date(Math.min(start.getTime(), w.now.getTime()) - faker.number.int({ min: 1 * 24 * 60, max: 21 * 24 * 60 }) * 60_000),
           },
           { transaction },
         );
