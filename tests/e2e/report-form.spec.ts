@@ -168,7 +168,9 @@ test('the sonographer records a thyroid exam, it is saved, and the submitted rep
   await expect(reader.getByTestId('derived-thyroidVolumeMl')).toContainText('11.0 mL');
   await expect(reader.getByTestId('nodule-N1')).toContainText('TR4');
   await expect(reader.getByTestId('flag-thyroidVolumeMl')).toContainText('crestline-ref');
-  await expect(reader.getByRole('textbox')).toHaveCount(0);
+  // The measurements are read-only for the physician; what they write is findings and impression.
+  await expect(reader.getByTestId('report-summary').getByRole('textbox')).toHaveCount(0);
+  await expect(reader.getByRole('textbox', { name: 'Impression' })).toBeVisible();
   await readerContext.close();
 });
 

@@ -27,7 +27,16 @@ export class Report extends Model<InferAttributes<Report>, InferCreationAttribut
   declare probeKind: ProbeKind | null;
   declare evaluation: unknown | null;
   declare findingsText: string | null;
-  declare impressionText: string | null;
+  /** The reading physician's findings and impression: HTML sanitized on the server (src/server/report-text). */
+  declare findingsHtml: CreationOptional<string | null>;
+  declare impressionHtml: CreationOptional<string | null>;
+  /** Who is reading a preliminary report (others see it in the queue and on the report). */
+  declare claimedBy: CreationOptional<number | null>;
+  declare claimedAt: CreationOptional<Date | null>;
+  /** The signature; a trigger keeps a signed report's content and signature unchanged. */
+  declare signedBy: CreationOptional<number | null>;
+  declare signedAt: CreationOptional<Date | null>;
+  declare signedHash: CreationOptional<string | null>;
   declare abnormalCount: CreationOptional<number>;
   declare createdBy: number | null;
   declare updatedBy: number | null;
@@ -54,7 +63,13 @@ export class Report extends Model<InferAttributes<Report>, InferCreationAttribut
         probeKind: { type: DataTypes.ENUM(...PROBE_KIND_CODES), allowNull: true },
         evaluation: { type: DataTypes.JSON, allowNull: true },
         findingsText: { type: DataTypes.TEXT, allowNull: true },
-        impressionText: { type: DataTypes.TEXT, allowNull: true },
+        findingsHtml: { type: DataTypes.TEXT, allowNull: true },
+        impressionHtml: { type: DataTypes.TEXT, allowNull: true },
+        claimedBy: { type: DataTypes.INTEGER, allowNull: true },
+        claimedAt: { type: DataTypes.DATE, allowNull: true },
+        signedBy: { type: DataTypes.INTEGER, allowNull: true },
+        signedAt: { type: DataTypes.DATE(3), allowNull: true },
+        signedHash: { type: DataTypes.CHAR(64), allowNull: true },
         abnormalCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdBy: { type: DataTypes.INTEGER, allowNull: true },
         updatedBy: { type: DataTypes.INTEGER, allowNull: true },

@@ -17,6 +17,16 @@ export type SaveDraftInput = z.infer<typeof saveDraftSchema>;
 
 export const versionOnlySchema = z.object({ version: z.number().int().min(0) });
 
+/** The reading physician's text: HTML from the editor, sanitized by the server before it is stored. */
+const reportHtml = z.string().max(40_000, 'This text is too long (at most about 40,000 characters).');
+export const readingSchema = z.object({ version: z.number().int().min(0), findingsHtml: reportHtml, impressionHtml: reportHtml });
+export type ReadingInput = z.infer<typeof readingSchema>;
+
+export const claimSchema = z.object({ takeOver: z.boolean().default(false) });
+
+/** Signing asks for the physician's password again. */
+export const signSchema = z.object({ version: z.number().int().min(0), password: z.string().min(1, 'Enter your password to sign.').max(200) });
+
 /** What the server keeps of an evaluation (the engine's answer minus its echo of the inputs). */
 export type StoredEvaluation = Pick<EvaluationSuccess, 'derived' | 'flags' | 'findings' | 'assessments' | 'urgentPrompts' | 'algorithms' | 'patient' | 'options' | 'cautions'>;
 
@@ -41,6 +51,14 @@ export interface ReportDto {
   updatedAt: string;
   updatedBy: string | null;
   submittedAt: string | null;
+  /** The physician's text (sanitized HTML); null until the reading starts. */
+  findingsHtml: string | null;
+  impressionHtml: string | null;
+  claimedBy: { id: number; name: string } | null;
+  claimedAt: string | null;
+  signedBy: string | null;
+  signedAt: string | null;
+  signedHash: string | null;
 }
 
 /**

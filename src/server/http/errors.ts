@@ -8,6 +8,8 @@ export type ErrorCode =
   | 'NOT_FOUND'
   | 'CONFLICT'
   | 'STALE'
+  /** The report is signed: only an addendum may follow. */
+  | 'SIGNED'
   | 'POSSIBLE_DUPLICATE'
   | 'RULE'
   | 'PAYLOAD_TOO_LARGE'

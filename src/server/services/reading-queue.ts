@@ -16,21 +16,24 @@ export interface QueueRow {
   waitingMinutes: number;
   abnormalCount: number;
   sonographer: string;
+  /** The physician who opened it, if anyone has. */
+  readingBy: string | null;
 }
 
 /** Preliminary reports waiting for a reading physician: urgent first, then longest waiting. */
 export async function readingQueue(now = new Date()): Promise<QueueRow[]> {
   const rows = await db().query<{
     report_id: number; exam_id: number; accession_number: string; exam_type: string; family_name: string; given_name: string; mrn: string;
-    priority: Priority; submitted_at: Date; created_at: Date; abnormal_count: number; sonographer: string;
+    priority: Priority; submitted_at: Date; created_at: Date; abnormal_count: number; sonographer: string; reading_by: string | null;
   }>(
     `SELECT r.id AS report_id, e.id AS exam_id, e.accession_number, t.name AS exam_type, p.family_name, p.given_name, p.mrn,
-            e.priority, r.submitted_at, e.created_at, r.abnormal_count, u.display_name AS sonographer
+            e.priority, r.submitted_at, e.created_at, r.abnormal_count, u.display_name AS sonographer, c.display_name AS reading_by
        FROM reports r
        JOIN exams e ON e.id = r.exam_id
        JOIN exam_types t ON t.id = e.exam_type_id
        JOIN patients p ON p.id = e.patient_id
        JOIN users u ON u.id = e.sonographer_id
+       LEFT JOIN users c ON c.id = r.claimed_by
       WHERE r.status = 'preliminary'
       ORDER BY e.priority = 'urgent' DESC, r.submitted_at ASC
       LIMIT 200`,
@@ -50,5 +53,6 @@ export async function readingQueue(now = new Date()): Promise<QueueRow[]> {
     waitingMinutes: minutes(r.submitted_at),
     abnormalCount: r.abnormal_count,
     sonographer: r.sonographer,
+    readingBy: r.reading_by,
   }));
 }

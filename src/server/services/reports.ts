@@ -12,7 +12,8 @@ import { afterChange, lockExam } from './booking';
 import { referenceSet } from './reference-ranges';
 import { clinicProfile } from './settings';
 
-function toDto(r: Report, updatedBy: string | null = null): ReportDto {
+function toDto(r: Report, names: ReadonlyMap<number, string> = new Map()): ReportDto {
+  const name = (id: number | null | undefined) => (id == null ? null : (names.get(id) ?? null));
   return {
     id: r.id,
     examId: r.examId,
@@ -31,14 +32,23 @@ function toDto(r: Report, updatedBy: string | null = null): ReportDto {
     findingsText: r.findingsText,
     abnormalCount: r.abnormalCount,
     updatedAt: r.updatedAt.toISOString(),
-    updatedBy,
+    updatedBy: name(r.updatedBy),
     submittedAt: r.submittedAt?.toISOString() ?? null,
+    findingsHtml: r.findingsHtml ?? null,
+    impressionHtml: r.impressionHtml ?? null,
+    claimedBy: r.claimedBy ? { id: r.claimedBy, name: name(r.claimedBy) ?? 'another physician' } : null,
+    claimedAt: r.claimedAt?.toISOString() ?? null,
+    signedBy: name(r.signedBy),
+    signedAt: r.signedAt?.toISOString() ?? null,
+    signedHash: r.signedHash ?? null,
   };
 }
 
-async function dtoWithEditor(r: Report, transaction?: Transaction): Promise<ReportDto> {
-  const editor = r.updatedBy ? await User.findByPk(r.updatedBy, { attributes: ['displayName'], transaction }) : null;
-  return toDto(r, editor?.displayName ?? null);
+/** A report with the names of the people it mentions (last editor, reader, signer), in one read. */
+export async function dtoWithEditor(r: Report, transaction?: Transaction): Promise<ReportDto> {
+  const ids = [...new Set([r.updatedBy, r.claimedBy, r.signedBy].filter((id): id is number => typeof id === 'number'))];
+  const users = ids.length ? await User.findAll({ where: { id: ids }, attributes: ['id', 'displayName'], transaction }) : [];
+  return toDto(r, new Map(users.map((u) => [u.id, u.displayName])));
 }
 
 const stored = (e: EvaluationSuccess): StoredEvaluation => ({
@@ -108,7 +118,7 @@ export async function startExam(actor: SessionUser, examId: number, version: num
             probeKind: probe?.kind ?? template.defaultProbe,
             evaluation: null,
             findingsText: null,
-            impressionText: null,
+            impressionHtml: null,
             createdBy: actor.id,
             updatedBy: actor.id,
           },

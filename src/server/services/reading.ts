@@ -1,0 +1,133 @@
+import { createHash } from 'node:crypto';
+import { QueryTypes } from 'sequelize';
+import { db } from '../../db/connection';
+import { Report } from '../../db/models';
+import { canonicalJson } from '../../lib/canonical-json';
+import type { ReadingInput, ReportDto } from '../../lib/schemas/reports';
+import type { SessionUser } from '../../lib/session-user';
+import { verifyPassword } from '../auth/password';
+import { HttpError, notFound, stale } from '../http/errors';
+import { findingsToHtml, plainText, sanitizeReportHtml } from '../report-text/sanitize';
+import { audit } from './audit';
+import { dtoWithEditor } from './reports';
+
+/**
+ * The reading physician's side of a report: claiming it from the queue, editing the findings and
+ * impression, and signing. Every step is one transaction with its audit event; text is sanitized
+ * here, whatever the browser sent.
+ */
+
+const signedAlready = () => new HttpError(409, 'SIGNED', 'This report is signed and can no longer be edited; corrections are written as an addendum.');
+
+/** Why a guarded write changed nothing: gone (404), signed or not yet submitted (409), or stale (409 with the current report). */
+async function refusal(reportId: number): Promise<never> {
+  const current = await Report.findByPk(reportId);
+  if (!current) throw notFound('The report');
+  if (current.status === 'final' || current.status === 'amended') throw signedAlready();
+  if (current.status === 'draft') throw new HttpError(409, 'CONFLICT', 'This report is still a draft: the sonographer has not submitted it yet.');
+  const err = stale('report');
+  throw new HttpError(409, err.code, err.message, undefined, { current: await dtoWithEditor(current) });
+}
+
+/**
+ * Opening a preliminary report claims it for the physician, so others see who is reading it.
+ * A report someone else is reading stays theirs unless `takeOver` is asked for. Anything but a
+ * preliminary report is left as it is.
+ */
+export async function claimReport(actor: SessionUser, reportId: number, takeOver: boolean, requestId: string): Promise<ReportDto> {
+  const report = await db().transaction(async (transaction) => {
+    const r = await Report.findByPk(reportId, { transaction, lock: transaction.LOCK.UPDATE });
+    if (!r) throw notFound('The report');
+    if (r.status !== 'preliminary' || r.claimedBy === actor.id) return r;
+    if (r.claimedBy !== null && !takeOver) return r;
+    const from = r.claimedBy;
+    // A claim is not an edit: the version (which guards the text) stays as it is.
+    await r.update({ claimedBy: actor.id, claimedAt: new Date() }, { transaction, silent: true });
+    await audit({ actorUserId: actor.id, action: from === null ? 'report.claim' : 'report.take-over', entityType: 'report', entityId: r.id, detail: { examId: r.examId, from }, requestId }, transaction);
+    return r;
+  });
+  return dtoWithEditor(report);
+}
+
+/** Saves the physician's findings and impression on a preliminary report (409 once signed or when stale). */
+export async function saveReading(actor: SessionUser, reportId: number, input: ReadingInput, requestId: string): Promise<ReportDto> {
+  // An emptied box is no text (null): empty findings are signed as the generated ones.
+  const findingsHtml = sanitizeReportHtml(input.findingsHtml) || null;
+  const impressionHtml = sanitizeReportHtml(input.impressionHtml) || null;
+  const applied = await db().transaction(async (transaction) => {
+    const [, changed] = await db().query(
+      `UPDATE reports SET findings_html = ?, impression_html = ?, updated_by = ?, version = version + 1, updated_at = ?,
+              claimed_at = IF(claimed_by IS NULL, ?, claimed_at), claimed_by = COALESCE(claimed_by, ?)
+        WHERE id = ? AND version = ? AND status = 'preliminary'`,
+      { replacements: [findingsHtml, impressionHtml, actor.id, new Date(), new Date(), actor.id, reportId, input.version], type: QueryTypes.UPDATE, transaction },
+    );
+    if (changed !== 1) return false;
+    await audit({ actorUserId: actor.id, action: 'report.edit', entityType: 'report', entityId: reportId, detail: { version: input.version, findingsChars: findingsHtml?.length ?? 0, impressionChars: impressionHtml?.length ?? 0 }, requestId }, transaction);
+    return true;
+  });
+  if (!applied) return refusal(reportId);
+  return dtoWithEditor((await Report.findByPk(reportId))!);
+}
+
+/** What a signature covers, as one canonical JSON text (its sha256 is stored with the signature). */
+export function signedContent(x: {
+  report: Pick<Report, 'id' | 'examId' | 'templateId' | 'templateVersion' | 'referenceSetVersion' | 'measurements' | 'nodules' | 'heightCm' | 'weightKg' | 'probeKind' | 'evaluation'>;
+  findingsHtml: string;
+  impressionHtml: string;
+  signer: { id: number; name: string };
+  signedAt: Date;
+}): string {
+  const r = x.report;
+  const evaluation = (r.evaluation ?? {}) as { derived?: unknown; flags?: unknown; assessments?: unknown };
+  return canonicalJson({
+    reportId: r.id,
+    examId: r.examId,
+    template: `${r.templateId}@${r.templateVersion}`,
+    referenceSet: r.referenceSetVersion,
+    measurements: r.measurements,
+    nodules: r.nodules,
+    patientFactors: { heightCm: r.heightCm, weightKg: r.weightKg },
+    probeKind: r.probeKind,
+    derived: evaluation.derived ?? null,
+    flags: evaluation.flags ?? null,
+    assessments: evaluation.assessments ?? null,
+    findingsHtml: x.findingsHtml,
+    impressionHtml: x.impressionHtml,
+    signer: x.signer,
+    signedAt: x.signedAt.toISOString(),
+  });
+}
+
+/**
+ * "Sign": the physician's password again, then in one transaction the signature (signer, time,
+ * sha256 of the signed content) and `final`. Of two physicians signing at once exactly one wins;
+ * the other gets 409. A report without an impression is not signed.
+ */
+export async function signReport(actor: SessionUser, reportId: number, input: { version: number; password: string }, requestId: string): Promise<ReportDto> {
+  const [row] = await db().query<{ password_hash: string }>('SELECT password_hash FROM users WHERE id = ?', { replacements: [actor.id], type: QueryTypes.SELECT });
+  if (!row || !(await verifyPassword(row.password_hash, input.password))) {
+    await audit({ actorUserId: actor.id, action: 'report.sign-refused', entityType: 'report', entityId: reportId, detail: { reason: 'password' }, requestId });
+    throw new HttpError(400, 'VALIDATION', 'The report was not signed.', { password: 'That is not your password.' });
+  }
+  const report = await Report.findByPk(reportId);
+  if (!report) throw notFound('The report');
+  if (report.version !== input.version || report.status !== 'preliminary') return refusal(reportId);
+  const impressionHtml = report.impressionHtml ?? '';
+  if (plainText(impressionHtml) === '') throw new HttpError(400, 'VALIDATION', 'The report was not signed.', { impressionHtml: 'Write the impression before signing.' });
+  // Findings nobody edited are the engine's generated text, fixed now as the signed findings.
+  const findingsHtml = report.findingsHtml ?? findingsToHtml(report.findingsText);
+  const signedAt = new Date();
+  const hash = createHash('sha256').update(signedContent({ report, findingsHtml, impressionHtml, signer: { id: actor.id, name: actor.displayName }, signedAt })).digest('hex');
+  const applied = await db().transaction(async (transaction) => {
+      const [, changed] = await db().query(
+        `UPDATE reports SET status = 'final', findings_html = ?, signed_by = ?, signed_at = ?, signed_hash = ?, updated_by = ?, updated_at = ?, version = version + 1
+          WHERE id = ? AND version = ? AND status = 'preliminary'`,
+        { replacements: [findingsHtml, actor.id, signedAt, hash, actor.id, signedAt, reportId, input.version], type: QueryTypes.UPDATE, transaction },
+      );
+      if (changed !== 1) return false;
+      await audit({ actorUserId: actor.id, action: 'report.sign', entityType: 'report', entityId: reportId, detail: { examId: report.examId, version: input.version, sha256: hash }, requestId }, transaction);
+      return true;
+  });
+  if (!applied) return refusal(reportId);
+  return dtoWithEditor((await Report.findByPk(reportId))!);
+}
