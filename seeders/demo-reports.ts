@@ -54,7 +54,7 @@ export async function seedReport(
       probeKind: probe?.kind ?? template.defaultProbe,
       evaluation: { derived: result.derived, flags: result.flags, findings: result.findings, assessments: result.assessments, urgentPrompts: result.urgentPrompts, algorithms: result.algorithms, patient: result.patient, options: result.options, cautions: result.cautions },
       findingsText: result.findings.join('\n'),
-      impressionText: null,
+      impressionHtml: null,
       abnormalCount: result.flags.filter((f) => f.status === 'low' || f.status === 'high').length,
       createdBy: x.sonographerId,
       updatedBy: x.sonographerId,
