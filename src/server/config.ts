@@ -27,7 +27,17 @@ const schema = z.object({
   SMTP_PASSWORD: z.string().optional(),
   /** Sender address; defaults to the clinic's e-mail from its profile. */
   MAIL_FROM: z.string().optional(),
+  /** The address people reach this server at, for links in e-mails; defaults to http://HOST:PORT. */
+  PUBLIC_URL: z.url().optional(),
+  HOST: z.string().default('127.0.0.1'),
+  PORT: z.coerce.number().int().min(1).max(65535).default(4321),
 });
+
+/** The base of links in e-mails (no trailing slash). */
+export function publicUrl(): string {
+  const c = config();
+  return (c.PUBLIC_URL ?? `http://${c.HOST}:${c.PORT}`).replace(/\/+$/, '');
+}
 
 export type ServerConfig = z.infer<typeof schema>;
 

@@ -27,3 +27,13 @@ export const paymentPolicySchema = z.object({
 });
 export type PaymentPolicy = z.infer<typeof paymentPolicySchema>;
 export const DEFAULT_PAYMENT_POLICY: PaymentPolicy = { fullRefundHoursAhead: 24 };
+
+/** Delivery of final reports to referring clinicians ('reports.delivery'). */
+export const reportDeliverySchema = z.object({
+  /** How long an e-mailed report link works, in days. */
+  linkDays: z.number().int().min(1).max(365),
+  /** Whether the PDF goes with the e-mail as an attachment (off: the link only). */
+  attachPdf: z.boolean(),
+});
+export type ReportDelivery = z.infer<typeof reportDeliverySchema>;
+export const DEFAULT_REPORT_DELIVERY: ReportDelivery = { linkDays: 30, attachPdf: false };

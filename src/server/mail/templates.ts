@@ -112,3 +112,31 @@ export function receipt(clinic: ClinicProfile, e: ExamFacts, p: { kind: 'deposit
     html: layout(clinic, 'Thank you for your payment', [esc(lines[0]!), `We have received your ${what} of <b>${esc(amount)}</b> on ${esc(p.paidAt)} for your ${esc(e.examTypeName.toLowerCase())} (${esc(e.when)}).`, `<span style="color:#6c7f99">${esc(lines[2]!)}</span>`]),
   };
 }
+
+/**
+ * To the referring clinician when a report is signed (or corrected by an addendum): that it is
+ * ready and where to read it, never what it says (no diagnosis, no patient name in an e-mail).
+ */
+export function reportReady(
+  clinic: ClinicProfile,
+  r: { referrerName: string; examTypeName: string; examDay: string; accessionNumber: string; link: string; expiresOn: string; reason: 'final' | 'addendum' },
+): MailContent {
+  const what = r.reason === 'final' ? 'The final report' : 'An addendum to the report';
+  const subject = r.reason === 'final' ? `Report ready: ${r.examTypeName}, reference ${r.accessionNumber}` : `Report corrected: ${r.examTypeName}, reference ${r.accessionNumber}`;
+  const lines = [
+    `Dear ${r.referrerName},`,
+    `${what} of the ${r.examTypeName.toLowerCase()} of ${r.examDay} that you requested (reference ${r.accessionNumber}) is ready.`,
+    `Read it here after signing in to ${clinic.name}'s Crestline: ${r.link}`,
+    `The link works until ${r.expiresOn}. It is for you alone; please do not forward it. For questions call us on ${clinic.phone}.`,
+  ];
+  return {
+    subject,
+    text: lines.join('\n\n') + footer(clinic),
+    html: layout(clinic, r.reason === 'final' ? 'A report is ready' : 'A report was corrected', [
+      esc(lines[0]!),
+      esc(lines[1]!),
+      `<a href="${esc(r.link)}" style="display:inline-block;background:#1b7a6c;color:#ffffff;text-decoration:none;padding:10px 16px;border-radius:6px">Read the report</a>`,
+      `<span style="font-size:13px;color:#4c6079">${esc(lines[3]!)}</span>`,
+    ]),
+  };
+}

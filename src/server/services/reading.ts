@@ -9,6 +9,7 @@ import { verifyPassword } from '../auth/password';
 import { HttpError, notFound, stale } from '../http/errors';
 import { findingsToHtml, plainText, sanitizeReportHtml } from '../report-text/sanitize';
 import { audit } from './audit';
+import { queueDelivery } from './report-delivery';
 import { dtoWithEditor } from './reports';
 
 /**
@@ -100,7 +101,7 @@ export function signedContent(x: {
 
 /**
  * "Sign": the physician's password again, then in one transaction the signature (signer, time,
- * sha256 of the signed content) and `final`. Of two physicians signing at once exactly one wins;
+ * sha256 of the signed content), `final`, and the referrer's e-mail queued. Of two physicians signing at once exactly one wins;
  * the other gets 409. A report without an impression is not signed.
  */
 export async function signReport(actor: SessionUser, reportId: number, input: { version: number; password: string }, requestId: string): Promise<ReportDto> {
@@ -126,6 +127,8 @@ export async function signReport(actor: SessionUser, reportId: number, input: { 
       );
       if (changed !== 1) return false;
       await audit({ actorUserId: actor.id, action: 'report.sign', entityType: 'report', entityId: reportId, detail: { examId: report.examId, version: input.version, sha256: hash }, requestId }, transaction);
+      // The referrer's e-mail and link go in the same transaction: sent only if the signature holds.
+      await queueDelivery({ reportId, reason: 'final', actorUserId: actor.id, requestId }, transaction, signedAt);
       return true;
   });
   if (!applied) return refusal(reportId);

@@ -1,7 +1,17 @@
 import type { Transaction } from 'sequelize';
 import { Setting } from '../../db/models';
 import { clinicProfileSchema, type ClinicProfile } from '../../lib/schemas/clinic';
-import { clinicHoursSchema, DEFAULT_CLINIC_HOURS, DEFAULT_PAYMENT_POLICY, paymentPolicySchema, type ClinicHours, type PaymentPolicy } from '../../lib/schemas/settings';
+import {
+  clinicHoursSchema,
+  DEFAULT_CLINIC_HOURS,
+  DEFAULT_PAYMENT_POLICY,
+  DEFAULT_REPORT_DELIVERY,
+  paymentPolicySchema,
+  reportDeliverySchema,
+  type ClinicHours,
+  type PaymentPolicy,
+  type ReportDelivery,
+} from '../../lib/schemas/settings';
 
 // Used until the manager saves a profile; the demo seed writes a full one.
 const FALLBACK: ClinicProfile = {
@@ -55,4 +65,9 @@ export function clinicHours(transaction?: Transaction): Promise<ClinicHours> {
 /** The cancellation refund policy ('payments.policy'). */
 export function paymentPolicy(transaction?: Transaction): Promise<PaymentPolicy> {
   return readSetting('payments.policy', paymentPolicySchema, DEFAULT_PAYMENT_POLICY, transaction);
+}
+
+/** Report delivery to referrers: link lifetime and whether the PDF is attached ('reports.delivery'). */
+export function reportDelivery(transaction?: Transaction): Promise<ReportDelivery> {
+  return readSetting('reports.delivery', reportDeliverySchema, DEFAULT_REPORT_DELIVERY, transaction);
 }
