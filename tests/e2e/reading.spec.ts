@@ -1,5 +1,12 @@
 import { expect, test } from '@playwright/test';
-import { demo, open, signInAs } from './support';
+import { QueryTypes } from 'sequelize';
+import { User } from '../../src/db/models';
+import { closeTestDb, testDb } from '../helpers/db';
+import { DEMO_PASSWORD, demo, hydrated, open, signInAs } from './support';
+
+test.afterAll(async () => {
+  await closeTestDb();
+});
 
 test('the reading physician claims a report from the queue, writes the impression and signs it with the password', async ({ page, browser }) => {
   test.setTimeout(60_000);
@@ -47,4 +54,54 @@ test('the reading physician claims a report from the queue, writes the impressio
   await expect(page.getByRole('textbox', { name: 'Impression' })).toHaveCount(0);
   await open(page, '/reading');
   await expect(page.getByRole('row').filter({ hasText: accession })).toHaveCount(0);
+});
+
+test('the referring clinician opens the link from the e-mail, signs in, and reads the final report', async ({ page, browser }) => {
+  test.setTimeout(60_000);
+  testDb();
+  // A waiting report of the demo referrer's practice, from the middle of the list (the
+  // integration tests that ran before on this database signed some at both ends).
+  const referrer = (await User.findOne({ where: { email: demo('referrer').email } }))!;
+  const rows = await testDb().query<{ id: number; version: number; accession_number: string }>(
+    `SELECT r.id, r.version, e.accession_number FROM reports r JOIN exams e ON e.id = r.exam_id
+      WHERE r.status = 'preliminary' AND r.claimed_by IS NULL AND e.referrer_id = ? ORDER BY r.id`,
+    { replacements: [referrer.referrerId], type: QueryTypes.SELECT },
+  );
+  const report = rows[Math.floor(rows.length / 2) + 2] ?? rows.at(-1)!;
+
+  // The physician signs (through the API here; the test above signs through the page).
+  const reader = await browser.newContext({ baseURL: process.env.APP_URL });
+  const readerPage = await reader.newPage();
+  await signInAs(readerPage, demo('reader').email);
+  const headers = { Origin: process.env.APP_URL! };
+  const saved = await readerPage.request.put(`/api/reports/${report.id}/reading`, { headers, data: { version: report.version, findingsHtml: '', impressionHtml: '<p>Benign-appearing study.</p>' } });
+  expect(saved.status()).toBe(200);
+  const signed = await readerPage.request.post(`/api/reports/${report.id}/sign`, { headers, data: { version: (await saved.json()).report.version, password: DEMO_PASSWORD } });
+  expect(signed.status()).toBe(200);
+  await reader.close();
+
+  // The worker sends the e-mail on its own; it says where, not what.
+  let mail: { subject: string; text: string } | undefined;
+  await expect
+    .poll(async () => {
+      const inbox = (await (await fetch(`${process.env.MAILDEV_URL}/email`)).json()) as Array<{ subject: string; text: string }>;
+      mail = inbox.find((m) => m.subject.includes(report.accession_number) && m.subject.startsWith('Report ready'));
+      return mail !== undefined;
+    }, { timeout: 20_000 })
+    .toBe(true);
+  expect(mail!.text).not.toContain('Benign-appearing');
+  const link = /https?:\/\/\S+\/r\/[A-Za-z0-9_-]+/.exec(mail!.text)![0];
+
+  // Signed out, the link asks for sign-in first, then opens the report.
+  await page.goto(new URL(link).pathname);
+  await expect(page).toHaveURL(/\/signin/);
+  await hydrated(page);
+  await page.getByLabel('E-mail').fill(demo('referrer').email);
+  await page.getByLabel('Password').fill(DEMO_PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await expect(page).toHaveURL(new RegExp(`/reports/${report.id}$`));
+  await expect(page.getByTestId('report-status')).toHaveText('Report: Final');
+  await expect(page.getByTestId('signed-impression')).toHaveText('Benign-appearing study.');
+  await expect(page.getByTestId('signature')).toContainText(demo('reader').displayName);
+  await expect(page.getByRole('link', { name: 'Exam details' })).toHaveCount(0);
 });
