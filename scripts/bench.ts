@@ -114,6 +114,11 @@ export const sections: BenchSection[] = [
     key: 'report',
     run: async () => (await import('./bench/report-form.ts')).reportFormBench(),
   },
+  {
+    name: 'Final report PDF, full echo report, rendered in-process (pdfkit)',
+    key: 'pdf',
+    run: async () => (await import('./bench/report-pdf.ts')).reportPdfBench(),
+  },
 ];
 
 const passes = (f: BenchFigure): boolean => (f.atLeast !== undefined ? f.value >= f.atLeast : f.value < f.target);

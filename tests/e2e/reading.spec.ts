@@ -104,4 +104,9 @@ test('the referring clinician opens the link from the e-mail, signs in, and read
   await expect(page.getByTestId('signed-impression')).toHaveText('Benign-appearing study.');
   await expect(page.getByTestId('signature')).toContainText(demo('reader').displayName);
   await expect(page.getByRole('link', { name: 'Exam details' })).toHaveCount(0);
+  // The PDF of the same report, for the same referrer.
+  const pdf = await page.request.get(await page.getByRole('link', { name: 'Report as PDF' }).getAttribute('href') as string);
+  expect(pdf.status()).toBe(200);
+  expect(pdf.headers()['content-type']).toBe('application/pdf');
+  expect((await pdf.body()).subarray(0, 5).toString()).toBe('%PDF-');
 });

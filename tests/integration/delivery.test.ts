@@ -110,6 +110,10 @@ describe('delivery of the final report to the referring clinician', () => {
     expect((await call('GET', `/reports/${reportId}`, { cookie: otherReferrerCookie })).status).toBe(404);
     expect((await call('GET', `/reports/${mine[1]}`, { cookie: await sessionFor('referrer') })).status).toBe(404);
     expect((await call('GET', '/r/not-a-real-token-but-long-enough', { cookie: await sessionFor('referrer') })).status).toBe(404);
+    // The PDF follows the same rule: theirs only, and only once signed.
+    expect((await call('GET', `/api/reports/${reportId}/pdf`, { cookie: await sessionFor('referrer') })).status).toBe(200);
+    expect((await call('GET', `/api/reports/${reportId}/pdf`, { cookie: otherReferrerCookie })).status).toBe(404);
+    expect((await call('GET', `/api/reports/${mine[1]}/pdf`, { cookie: await sessionFor('referrer') })).status).toBe(404);
   });
 
   it('stops working when its time is past', async () => {
