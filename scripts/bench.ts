@@ -115,6 +115,11 @@ export const sections: BenchSection[] = [
     run: async () => (await import('./bench/report-form.ts')).reportFormBench(),
   },
   {
+    name: 'Signing, password checked again, 8 connections',
+    key: 'sign',
+    run: async () => (await import('./bench/report-sign.ts')).reportSignBench(),
+  },
+  {
     name: 'Final report PDF, full echo report, rendered in-process (pdfkit)',
     key: 'pdf',
     run: async () => (await import('./bench/report-pdf.ts')).reportPdfBench(),
