@@ -4,6 +4,9 @@ import { User } from '../../src/db/models';
 import { closeTestDb, testDb } from '../helpers/db';
 import { DEMO_PASSWORD, demo, hydrated, open, signInAs } from './support';
 
+// One after the other: both sign a waiting report, and must not pick the same one.
+test.describe.configure({ mode: 'serial' });
+
 test.afterAll(async () => {
   await closeTestDb();
 });
@@ -12,8 +15,9 @@ test('the reading physician claims a report from the queue, writes the impressio
   test.setTimeout(60_000);
   await signInAs(page, demo('reader').email);
   await open(page, '/reading');
-  // The last row: the longest-waiting ones are taken by other tests against the same database.
-  const row = page.getByRole('table', { name: 'Reading queue' }).getByRole('row').filter({ hasText: 'nobody yet' }).last();
+  // The longest-waiting report nobody reads yet: a seeded one, never a report another browser
+  // test has just submitted (those wait at the bottom of the queue).
+  const row = page.getByRole('table', { name: 'Reading queue' }).getByRole('row').filter({ hasText: 'nobody yet' }).first();
   // "MRN · accession": the accession number names the exam (a patient may have several waiting).
   const accession = (await row.locator('td').nth(1).locator('span').innerText()).split('·')[1]!.trim();
   await row.getByRole('link').first().click();
