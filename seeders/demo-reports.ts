@@ -2,6 +2,7 @@ import type { Faker } from '@faker-js/faker';
 import type { Transaction } from 'sequelize';
 import { Exam, Patient, Probe, Report } from '../src/db/models';
 import { evaluate, getTemplate, REFERENCE_RANGES, REFERENCE_SET_VERSION, type TemplateId } from '../src/lib/clinical';
+import { abnormalCount, storedEvaluation } from '../src/lib/schemas/reports';
 import { zonedDate } from '../src/lib/time';
 
 /**
@@ -52,10 +53,10 @@ export async function seedReport(
       weightKg,
       probeId: probe?.id ?? null,
       probeKind: probe?.kind ?? template.defaultProbe,
-      evaluation: { derived: result.derived, flags: result.flags, findings: result.findings, assessments: result.assessments, urgentPrompts: result.urgentPrompts, algorithms: result.algorithms, patient: result.patient, options: result.options, cautions: result.cautions },
+      evaluation: storedEvaluation(result),
       findingsText: result.findings.join('\n'),
       impressionHtml: null,
-      abnormalCount: result.flags.filter((f) => f.status === 'low' || f.status === 'high').length,
+      abnormalCount: abnormalCount(result),
       createdBy: x.sonographerId,
       updatedBy: x.sonographerId,
       submittedBy: draft ? null : x.sonographerId,

@@ -30,6 +30,22 @@ export const signSchema = z.object({ version: z.number().int().min(0), password:
 /** What the server keeps of an evaluation (the engine's answer minus its echo of the inputs). */
 export type StoredEvaluation = Pick<EvaluationSuccess, 'derived' | 'flags' | 'findings' | 'assessments' | 'urgentPrompts' | 'algorithms' | 'patient' | 'options' | 'cautions'>;
 
+/** What is stored of an engine answer: the server's saves and the demo seed keep the same parts. */
+export const storedEvaluation = (e: EvaluationSuccess): StoredEvaluation => ({
+  derived: e.derived,
+  flags: e.flags,
+  findings: e.findings,
+  assessments: e.assessments,
+  urgentPrompts: e.urgentPrompts,
+  algorithms: e.algorithms,
+  patient: e.patient,
+  options: e.options,
+  cautions: e.cautions,
+});
+
+/** How many values are flagged low or high (the reading queue's count). */
+export const abnormalCount = (e: Pick<EvaluationSuccess, 'flags'>): number => e.flags.filter((f) => f.status === 'low' || f.status === 'high').length;
+
 /** A report as the form and the reading screens see it. */
 export interface ReportDto {
   id: number;

@@ -6,11 +6,11 @@ import { canonicalJson } from '../../lib/canonical-json';
 import type { ReadingInput, ReportDto } from '../../lib/schemas/reports';
 import type { SessionUser } from '../../lib/session-user';
 import { verifyPassword } from '../auth/password';
-import { HttpError, notFound, stale } from '../http/errors';
+import { HttpError, notFound } from '../http/errors';
 import { findingsToHtml, plainText, sanitizeReportHtml } from '../report-text/sanitize';
 import { audit } from './audit';
 import { queueDelivery } from './report-delivery';
-import { dtoWithEditor } from './reports';
+import { dtoWithEditor, reportRefusal } from './reports';
 
 /**
  * The reading physician's side of a report: claiming it from the queue, editing the findings and
@@ -20,15 +20,11 @@ import { dtoWithEditor } from './reports';
 
 const signedAlready = () => new HttpError(409, 'SIGNED', 'This report is signed and can no longer be edited; corrections are written as an addendum.');
 
-/** Why a guarded write changed nothing: gone (404), signed or not yet submitted (409), or stale (409 with the current report). */
-async function refusal(reportId: number): Promise<never> {
-  const current = await Report.findByPk(reportId);
-  if (!current) throw notFound('The report');
-  if (current.status === 'final' || current.status === 'amended') throw signedAlready();
-  if (current.status === 'draft') throw new HttpError(409, 'CONFLICT', 'This report is still a draft: the sonographer has not submitted it yet.');
-  const err = stale('report');
-  throw new HttpError(409, err.code, err.message, undefined, { current: await dtoWithEditor(current) });
-}
+/** A preliminary report is what the reading physician may edit or sign; signed ones and drafts are refused, each in its words. */
+const refusal = (reportId: number) =>
+  reportRefusal(reportId, 'preliminary', (status) =>
+    status === 'draft' ? new HttpError(409, 'CONFLICT', 'This report is still a draft: the sonographer has not submitted it yet.') : signedAlready(),
+  );
 
 /**
  * Opening a preliminary report claims it for the physician, so others see who is reading it.

@@ -3,7 +3,7 @@ import { db } from '../../db/connection';
 import { Exam, ExamType, Patient, Probe, Report, Room, Scanner, User } from '../../db/models';
 import { evaluate, getTemplate, missingRequired, REFERENCE_SET_VERSION, type EvaluationSuccess, type ReferenceRange, type TemplateId } from '../../lib/clinical';
 import { canMoveExam } from '../../lib/exam-status';
-import type { DraftSavedDto, ReportContext, ReportDto, SaveDraftInput, StoredEvaluation } from '../../lib/schemas/reports';
+import { abnormalCount, storedEvaluation, type DraftSavedDto, type ReportContext, type ReportDto, type SaveDraftInput, type StoredEvaluation } from '../../lib/schemas/reports';
 import type { SessionUser } from '../../lib/session-user';
 import { ageOn, formatInstant, zonedDate } from '../../lib/time';
 import { HttpError, notFound, ruleBroken, stale } from '../http/errors';
@@ -51,17 +51,6 @@ export async function dtoWithEditor(r: Report, transaction?: Transaction): Promi
   return toDto(r, new Map(users.map((u) => [u.id, u.displayName])));
 }
 
-const stored = (e: EvaluationSuccess): StoredEvaluation => ({
-  derived: e.derived,
-  flags: e.flags,
-  findings: e.findings,
-  assessments: e.assessments,
-  urgentPrompts: e.urgentPrompts,
-  algorithms: e.algorithms,
-  patient: e.patient,
-  options: e.options,
-  cautions: e.cautions,
-});
 
 /**
  * Runs the engine on a report's entries with the exam's patient factors and the stored
@@ -84,8 +73,6 @@ function evaluateEntries(
   if (!result.ok) throw new HttpError(400, 'VALIDATION', 'Some values are outside what is plausible; check the units.', result.fieldErrors);
   return result;
 }
-
-const abnormal = (e: EvaluationSuccess) => e.flags.filter((f) => f.status === 'low' || f.status === 'high').length;
 
 /**
  * "Start scan": an arrived exam moves to in-progress and gets its draft report, with the
@@ -177,14 +164,21 @@ async function draftHead(reportId: number, probeId: number | null) {
   return row;
 }
 
-/** The 409 for a save based on an older version: the form keeps what was typed and shows who saved meanwhile. */
-async function staleSave(reportId: number): Promise<never> {
+/**
+ * Why a guarded write to a report changed nothing, once it has: gone (404), no longer in the
+ * status the write needs (409, worded by `wrongStatus`), or saved by someone else meanwhile
+ * (409 STALE with the current report, so the form keeps what was typed and shows who saved).
+ */
+export async function reportRefusal(reportId: number, needs: Report['status'], wrongStatus: (status: Report['status']) => HttpError): Promise<never> {
   const current = await Report.findByPk(reportId);
   if (!current) throw notFound('The report');
-  if (current.status !== 'draft') throw new HttpError(409, 'CONFLICT', `This report is ${current.status} and can no longer be edited here.`);
+  if (current.status !== needs) throw wrongStatus(current.status);
   const err = stale('report');
   throw new HttpError(409, err.code, err.message, undefined, { current: await dtoWithEditor(current) });
 }
+
+const notADraft = (status: Report['status']) => new HttpError(409, 'CONFLICT', `This report is ${status} and can no longer be edited here.`);
+const staleSave = (reportId: number) => reportRefusal(reportId, 'draft', notADraft);
 
 /**
  * Autosave of a draft: the server recomputes with the same engine and stores the entries, the
@@ -212,7 +206,7 @@ export async function saveDraft(actor: SessionUser, reportId: number, input: Sav
     version: head.version + 1,
     templateVersion: getTemplate(head.template_id as TemplateId)!.version,
     referenceSetVersion: result.referenceSetVersion,
-    abnormalCount: abnormal(result),
+    abnormalCount: abnormalCount(result),
     updatedAt: new Date().toISOString(),
     updatedBy: actor.displayName,
   };
@@ -230,7 +224,7 @@ export async function saveDraft(actor: SessionUser, reportId: number, input: Sav
           input.weightKg,
           input.probeId,
           input.probeId === null ? head.probe_kind : head.chosen_kind,
-          JSON.stringify(stored(result)),
+          JSON.stringify(storedEvaluation(result)),
           result.findings.join('\n'),
           saved.abnormalCount,
           saved.templateVersion,
@@ -278,7 +272,7 @@ export async function submitPreliminary(actor: SessionUser, reportId: number, ve
       const result = evaluateEntries(facts, report.templateId, { ...report.get(), nodules: report.nodules as SaveDraftInput['nodules'] }, timeZone, referenceRanges);
       const now = new Date();
       await report.update(
-        { status: 'preliminary', evaluation: stored(result), findingsText: result.findings.join('\n'), abnormalCount: abnormal(result), submittedBy: actor.id, submittedAt: now, updatedBy: actor.id, version: report.version + 1 },
+        { status: 'preliminary', evaluation: storedEvaluation(result), findingsText: result.findings.join('\n'), abnormalCount: abnormalCount(result), submittedBy: actor.id, submittedAt: now, updatedBy: actor.id, version: report.version + 1 },
         { transaction },
       );
       await exam!.update({ status: 'completed', version: exam!.version + 1 }, { transaction });
