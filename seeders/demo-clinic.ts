@@ -9,7 +9,8 @@ import type { Role } from '../src/lib/roles';
 import { accessionFrom, mrnFromNumber, uidFromUuid } from '../src/lib/identifiers';
 import { addDays, zonedDate, zonedTimeToUtc } from '../src/lib/time';
 import { CLINIC, DEMO_PASSWORD, DEMO_USERS, EXAM_TYPES, INDICATIONS, ROOMS } from './demo-clinic-data';
-import { seedReport } from './demo-reports';
+import { getTemplate, type PriorExamInput, type TemplateId } from '../src/lib/clinical';
+import { demoEntries, earlierEntries, seedReport, type DemoEntries } from './demo-reports';
 
 /**
  * The invented demo clinic: everything a person needs to try Crestline. Deterministic for a
@@ -59,7 +60,8 @@ export async function seedDemoClinic(sequelize: Sequelize, now = new Date()): Pr
 
     const patients = await seedPatients(faker, transaction);
     await raiseTo('mrn', patients.length, transaction);
-    await seedWeekOfExams(faker, { rooms, types, patients, referrers, now }, transaction);
+    const reader = users.get('reader')!;
+    await seedWeekOfExams(faker, { rooms, types, patients, referrers, now, reader: { id: reader.id, name: reader.displayName } }, transaction);
   });
 }
 
@@ -118,12 +120,15 @@ interface WeekInput {
   patients: Patient[];
   referrers: Referrer[];
   now: Date;
+  /** Signs the demo's earlier exams. */
+  reader: { id: number; name: string };
 }
 
 /** Three days back to three days ahead, Monday to Saturday, each room filled with gaps. */
 async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transaction): Promise<void> {
   const today = zonedDate(w.now, CLINIC.timeZone);
   const counters = new Map<string, number>();
+  const baselines = new Map<string, { entries: DemoEntries; prior: PriorExamInput | null }>();
   for (let offset = -3; offset <= 3; offset++) {
     const day = addDays(today, offset);
     const weekday = new Date(day + 'T12:00:00Z').getUTCDay();
@@ -145,37 +150,64 @@ async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transact
         // with the deposit not yet taken, so the desk has deposits to collect in the demo.
         const selfPay = status === 'booked' && faker.datatype.boolean(0.35);
         const patient = queue.pop()!;
-        const exam = await Exam.create(
-          {
-            accessionNumber: accessionFrom(day, n),
-            patientId: patient.id,
-            examTypeId: type.id,
-            referrerId: faker.helpers.arrayElement(w.referrers.slice(0, faker.datatype.boolean(0.3) ? 1 : 10)).id,
-            roomId: r.room.id,
-            scannerId: r.scanner.id,
-            sonographerId: r.sonographer.id,
-            scheduledStart: start,
-            durationMinutes: type.durationMinutes,
-            scheduledEnd: new Date(start.getTime() + type.durationMinutes * 60_000),
-            status,
-            payer: selfPay ? 'self-pay' : 'insured',
-            depositCents: selfPay ? type.depositCents : 0,
-            paymentState: selfPay && type.depositCents > 0 ? 'deposit-due' : 'none',
-            createdBy: null,
-            priority: faker.datatype.boolean(0.1) ? 'urgent' : 'routine',
-            indication: faker.helpers.arrayElement(INDICATIONS[type.code] ?? ['Clinical assessment']),
-            studyInstanceUid: uidFromUuid(faker.string.uuid()),
-            priceCents: type.selfPayPriceCents,
-            currency: type.currency,
-            cancelReason: status === 'cancelled' ? 'Patient asked to rebook' : null,
-            // Booked one to three weeks before the exam (and never after now), so the age of
-            // each request in the reading queue and the turnaround figures look like a clinic's.
-            createdAt: new Date(Math.min(start.getTime(), w.now.getTime()) - faker.number.int({ min: 1 * 24 * 60, max: 21 * 24 * 60 }) * 60_000),
-          },
-          { transaction },
-        );
+        const referrerId = faker.helpers.arrayElement(w.referrers.slice(0, faker.datatype.boolean(0.3) ? 1 : 10)).id;
+        const examRow = (at: Date, st: ExamStatus, accessionNumber: string, bookedAt: Date) => ({
+          accessionNumber,
+          patientId: patient.id,
+          examTypeId: type.id,
+          referrerId,
+          roomId: r.room.id,
+          scannerId: r.scanner.id,
+          sonographerId: r.sonographer.id,
+          scheduledStart: at,
+          durationMinutes: type.durationMinutes,
+          scheduledEnd: new Date(at.getTime() + type.durationMinutes * 60_000),
+          status: st,
+          payer: selfPay && st === 'booked' ? ('self-pay' as const) : ('insured' as const),
+          depositCents: selfPay && st === 'booked' ? type.depositCents : 0,
+          paymentState: selfPay && st === 'booked' && type.depositCents > 0 ? ('deposit-due' as const) : ('none' as const),
+          createdBy: null,
+          priority: faker.datatype.boolean(0.1) ? ('urgent' as const) : ('routine' as const),
+          indication: faker.helpers.arrayElement(INDICATIONS[type.code] ?? ['Clinical assessment']),
+          studyInstanceUid: uidFromUuid(faker.string.uuid()),
+          priceCents: type.selfPayPriceCents,
+          currency: type.currency,
+          cancelReason: st === 'cancelled' ? 'Patient asked to rebook' : null,
+          createdAt: bookedAt,
+        });
+        // Booked one to three weeks before the exam (and never after now), so the age of
+        // each request in the reading queue and the turnaround figures look like a clinic's.
+        const bookedAt = new Date(Math.min(start.getTime(), w.now.getTime()) - faker.number.int({ min: 1 * 24 * 60, max: 21 * 24 * 60 }) * 60_000);
+        const exam = await Exam.create(examRow(start, status, accessionFrom(day, n), bookedAt), { transaction });
         if (status === 'completed' || status === 'in-progress') {
-          await seedReport(faker, { exam, patient, templateId: type.templateId, timeZone: CLINIC.timeZone, sonographerId: r.sonographer.id }, transaction);
+          // Some thyroid and abdomen patients were scanned here before: signed priors to compare with.
+          // A patient seen twice this week for the same exam keeps the same values and history.
+          const template = getTemplate(type.templateId as TemplateId);
+          const key = `${patient.id}:${type.templateId}`;
+          const known = baselines.get(key);
+          let entries: DemoEntries | undefined = known?.entries;
+          let prior: PriorExamInput | null = known?.prior ?? null;
+          if (template && !known && (template.id === 'thyroid' || template.id === 'abdomen') && faker.datatype.boolean(0.45)) {
+            entries = demoEntries(faker, template, { partial: status === 'in-progress' });
+            // Now and then an aneurysm at the repair threshold, for the urgent-communication prompt.
+            if (template.id === 'abdomen' && faker.datatype.boolean(0.3)) entries.measurements.aortaDiameterCm = faker.number.float({ min: 5.2, max: 5.9, fractionDigits: 1 });
+            for (const years of faker.helpers.arrayElement([[1], [2, 1]])) {
+              const at = new Date(start.getTime() - (years * 365 + faker.number.int({ min: -20, max: 20 })) * 86_400_000);
+              const priorDay = zonedDate(at, CLINIC.timeZone);
+              const k = (counters.get(priorDay) ?? 0) + 1;
+              counters.set(priorDay, k);
+              await raiseTo(`accession:${priorDay}`, k, transaction);
+              const earlier = await Exam.create(examRow(at, 'completed', accessionFrom(priorDay, k), new Date(at.getTime() - 10 * 86_400_000)), { transaction });
+              prior = await seedReport(
+                faker,
+                { exam: earlier, patient, templateId: type.templateId, timeZone: CLINIC.timeZone, sonographerId: r.sonographer.id, entries: earlierEntries(faker, template, entries, years), prior, signer: w.reader },
+                transaction,
+              );
+            }
+          }
+          if (template && !entries && status === 'completed') entries = demoEntries(faker, template, { partial: false });
+          if (entries && !known) baselines.set(key, { entries, prior });
+          await seedReport(faker, { exam, patient, templateId: type.templateId, timeZone: CLINIC.timeZone, sonographerId: r.sonographer.id, entries, prior }, transaction);
         }
         // Leave a gap now and then, so the schedule shows free time.
         minute += type.durationMinutes + (faker.datatype.boolean(0.3) ? 15 * faker.number.int({ min: 1, max: 4 }) : 0);

@@ -55,6 +55,11 @@ function echoReportInput(): ReportPdfInput {
     signedBy: 'Dr Ines Marlowe',
     signedAt,
     signedHash: createHash('sha256').update(findingsHtml + impressionHtml + signedAt).digest('hex'),
+    // A full report: one urgent communication and one addendum print too.
+    communications: [
+      { id: 1, ruleId: null, finding: 'Mildly elevated TR velocity', recipientName: 'Dr Wren Castell', recipientRole: 'referring physician', method: 'telephone', communicatedAt: '2025-03-01T16:30:00.000Z', readBack: true, recordedBy: 'Dr Ada Quill', recordedAt: '2025-03-01T16:31:00.000Z' },
+    ],
+    addenda: [{ id: 1, bodyHtml: '<p>Compared with the outside study of 2024: <strong>no interval change</strong> in LV mass index.</p>', signedBy: 'Dr Ada Quill', signedAt: '2025-03-02T09:10:00.000Z', signedHash: 'cd'.repeat(32) }],
   };
   const context: ReportContext = {
     examId: 4001,

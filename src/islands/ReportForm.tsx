@@ -26,6 +26,8 @@ interface Props {
   /** Derived code → section id (placement.ts), worked out on the server once per template. */
   placement: Readonly<Record<string, string>>;
   timeZone: string;
+  /** 'correct': the reading physician corrects a preliminary report's measurements (saved as typed, no submitting). */
+  mode?: 'record' | 'correct';
 }
 
 /**
@@ -33,11 +35,11 @@ interface Props {
  * value shown is the clinical engine's answer for what is typed, evaluated on each keystroke;
  * entries are saved on a pause in typing and the server recomputes what it stores.
  */
-export default function ReportForm({ report, context, placement, timeZone }: Props) {
+export default function ReportForm({ report, context, placement, timeZone, mode = 'record' }: Props) {
   const template = getTemplate(report.templateId)!;
   const [form, dispatch] = useReducer(formReducer, report, (r) => formFromStored(r, template));
   const patient = useMemo(() => ({ sex: context.patient.sex, birthDate: context.patient.birthDate, examDate: context.examDate }), [context]);
-  const live = useMemo(() => evaluateLive(form, template, patient), [form, template, patient]);
+  const live = useMemo(() => evaluateLive(form, template, patient, context.prior ?? null), [form, template, patient, context.prior]);
 
   // The saver reads the newest entries when it sends, not those of the render that scheduled it.
   const liveRef = useRef(live);
@@ -180,13 +182,22 @@ export default function ReportForm({ report, context, placement, timeZone }: Pro
           {current !== null || status.phase === 'conflict' ? (
             <ConflictNotice who={current?.updatedBy ?? null} savedAt={current ? clock(new Date(current.updatedAt)) : null} differences={diffs} busy={resolving} onKeepMine={keepMine} onLoadTheirs={loadTheirs} />
           ) : null}
-          <p className="text-sm text-ink-700">
-            {missing.length === 0 ? 'All required measurements are in.' : `Still needed before submitting: ${missing.map((c) => labelOf.get(c) ?? c).join(', ')}.`}
-          </p>
-          <button type="button" className="btn-primary w-full" disabled={submit.phase === 'busy' || status.phase === 'conflict'} onClick={submitNow}>
-            {submit.phase === 'busy' ? 'Submitting…' : 'Submit preliminary'}
-          </button>
-          {submit.phase === 'failed' && <p role="alert" className="rounded-md bg-high-50 px-3 py-2 text-sm text-high-800">{submit.message}</p>}
+          {mode === 'correct' ? (
+            <>
+              <p className="text-sm text-ink-700">Corrections are saved as you type; the calculated values, flags and generated findings are worked out again. Your findings and impression are kept as you wrote them.</p>
+              <a className="btn-primary block w-full text-center" href={`/exams/${context.examId}/report`}>Back to reading</a>
+            </>
+          ) : (
+            <>
+              <p className="text-sm text-ink-700">
+                {missing.length === 0 ? 'All required measurements are in.' : `Still needed before submitting: ${missing.map((c) => labelOf.get(c) ?? c).join(', ')}.`}
+              </p>
+              <button type="button" className="btn-primary w-full" disabled={submit.phase === 'busy' || status.phase === 'conflict'} onClick={submitNow}>
+                {submit.phase === 'busy' ? 'Submitting…' : 'Submit preliminary'}
+              </button>
+              {submit.phase === 'failed' && <p role="alert" className="rounded-md bg-high-50 px-3 py-2 text-sm text-high-800">{submit.message}</p>}
+            </>
+          )}
         </section>
         {live.result && <Assessments result={live.result} />}
         <FindingsPreview findings={live.result?.findings ?? []} />

@@ -89,7 +89,7 @@ function signedEcho(html: { findings: string; impression: string }, extras: Part
     evaluation: { derived: e.derived, flags: e.flags, findings: e.findings, assessments: e.assessments, urgentPrompts: e.urgentPrompts, algorithms: e.algorithms, patient: e.patient, options: e.options, cautions: e.cautions },
     findingsText: e.findings.join('\n'), abnormalCount: 0, updatedAt: '2025-03-01T16:00:00.000Z', updatedBy: 'Dr Ada Quill', submittedAt: '2025-03-01T15:50:00.000Z',
     findingsHtml: html.findings, impressionHtml: html.impression, claimedBy: null, claimedAt: null,
-    signedBy: 'Dr Ada Quill', signedAt: '2025-03-01T16:05:00.000Z', signedHash: 'ab'.repeat(32), ...extras,
+    signedBy: 'Dr Ada Quill', signedAt: '2025-03-01T16:05:00.000Z', signedHash: 'ab'.repeat(32), addenda: [], communications: [], ...extras,
   };
   const context: ReportContext = {
     examId: 1, examVersion: 2, examStatus: 'completed', accessionNumber: 'ACC-TEST-7', examTypeName: 'Echocardiogram, transthoracic', indication: 'Dyspnoea.',
@@ -134,10 +134,17 @@ describe('the physician’s text in the rendered PDF', () => {
   it('prints an urgent-communication statement and addenda when the report has them', async () => {
     const input = signedEcho(
       { findings: '<p>Findings.</p>', impression: '<p>Impression.</p>' },
-      { urgentStatement: 'Called Dr Lane at 10:40; read back.', addenda: [{ text: 'Prior study compared.', signedBy: 'Dr Ada Quill', signedAt: '2025-03-03T14:05:00.000Z' }] },
+      {
+        communications: [
+          { id: 1, ruleId: null, finding: 'Pericardial effusion with chamber collapse.', recipientName: 'Dr Lane', recipientRole: 'on-call physician', method: 'telephone', communicatedAt: '2025-03-01T16:40:00.000Z', readBack: true, recordedBy: 'Dr Ada Quill', recordedAt: '2025-03-01T16:41:00.000Z' },
+        ],
+        addenda: [{ id: 1, bodyHtml: '<p>Prior study <strong>compared</strong>.</p>', signedBy: 'Dr Ada Quill', signedAt: '2025-03-03T14:05:00.000Z', signedHash: 'cd'.repeat(32) }],
+      },
     );
     const { text } = await pdfText(await renderReportPdf(buildReportPdfModel(input)));
-    expect(text).toContain('Urgent finding communicated Called Dr Lane at 10:40; read back.');
+    // 16:40 UTC is 10:40 in Chicago (CST, UTC−6) on 1 Mar 2025.
+    expect(text).toContain('Direct communication of urgent findings Urgent finding communicated: Pericardial effusion with chamber collapse. Told to Dr Lane (on-call physician) by telephone on Sat, 1 Mar 2025 at 10:40 by Dr Ada Quill; the finding was read back.');
+    expect(text).toContain(`Content fingerprint (SHA-256): ${'cd'.repeat(32)}`);
     expect(text.indexOf('Addendum 1, signed by Dr Ada Quill')).toBeGreaterThan(text.indexOf('Electronically signed by Dr Ada Quill'));
     expect(text).toContain('Prior study compared.');
   });

@@ -13,6 +13,8 @@ export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCr
   declare kind: string;
   declare dedupeKey: string | null;
   declare examId: number | null;
+  /** A report whose PDF goes with the e-mail, rendered when it is sent. */
+  declare attachReportId: CreationOptional<number | null>;
   declare toAddress: string;
   declare subject: string;
   declare textBody: string;
@@ -35,6 +37,7 @@ export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCr
         kind: { type: DataTypes.STRING(40), allowNull: false },
         dedupeKey: { type: DataTypes.STRING(100), allowNull: true, unique: true },
         examId: { type: DataTypes.INTEGER, allowNull: true },
+        attachReportId: { type: DataTypes.INTEGER, allowNull: true },
         toAddress: { type: DataTypes.STRING(254), allowNull: false },
         subject: { type: DataTypes.STRING(200), allowNull: false },
         textBody: { type: DataTypes.TEXT, allowNull: false },

@@ -11,6 +11,8 @@ import { Probe } from './Probe';
 import { ReferenceRangeRow } from './ReferenceRangeRow';
 import { Referrer } from './Referrer';
 import { Report } from './Report';
+import { ReportAddendum } from './ReportAddendum';
+import { ReportCommunication } from './ReportCommunication';
 import { ReportLink } from './ReportLink';
 import { Room } from './Room';
 import { Scanner } from './Scanner';
@@ -18,11 +20,11 @@ import { Sequence } from './Sequence';
 import { Setting } from './Setting';
 import { User } from './User';
 
-export { Attachment, AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ReferenceRangeRow, Referrer, Report, ReportLink, Room, Scanner, Sequence, Setting, User };
+export { Attachment, AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ReferenceRangeRow, Referrer, Report, ReportAddendum, ReportCommunication, ReportLink, Room, Scanner, Sequence, Setting, User };
 
 /** Registers every model and association on one Sequelize instance. */
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Attachment, AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ReferenceRangeRow, Referrer, Report, ReportLink, Room, Scanner, Sequence, Setting, User]) {
+  for (const model of [Attachment, AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ReferenceRangeRow, Referrer, Report, ReportAddendum, ReportCommunication, ReportLink, Room, Scanner, Sequence, Setting, User]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Referrer, { foreignKey: 'referrerId', as: 'referrer' });

@@ -27,6 +27,59 @@ export const claimSchema = z.object({ takeOver: z.boolean().default(false) });
 /** Signing asks for the physician's password again. */
 export const signSchema = z.object({ version: z.number().int().min(0), password: z.string().min(1, 'Enter your password to sign.').max(200) });
 
+/** An addendum to a signed report: its text, and the physician's password again (signed the same way as the report). */
+export const addendumSchema = z.object({
+  version: z.number().int().min(0),
+  bodyHtml: reportHtml,
+  password: z.string().min(1, 'Enter your password to sign.').max(200),
+});
+export type AddendumInput = z.infer<typeof addendumSchema>;
+
+export const COMMUNICATION_METHODS = ['telephone', 'in-person', 'video-call', 'secure-message'] as const;
+export type CommunicationMethod = (typeof COMMUNICATION_METHODS)[number];
+export const COMMUNICATION_METHOD_LABELS: Record<CommunicationMethod, string> = {
+  telephone: 'by telephone',
+  'in-person': 'in person',
+  'video-call': 'by video call',
+  'secure-message': 'by secure message',
+};
+
+/**
+ * An urgent finding told directly to a clinician: what, to whom, how, when (clinic time,
+ * "YYYY-MM-DDTHH:mm" as a datetime field gives it) and whether they read it back.
+ */
+export const communicationSchema = z.object({
+  ruleId: z.string().max(60).regex(/^[a-z0-9-]+$/).nullable().default(null),
+  finding: z.string().trim().min(3, 'Say which finding was communicated.').max(500, 'At most 500 characters.'),
+  recipientName: z.string().trim().min(2, 'Who was told?').max(200),
+  recipientRole: z.string().trim().max(120).nullable().default(null).transform((v) => (v === '' ? null : v)),
+  method: z.enum(COMMUNICATION_METHODS, { message: 'Choose how it was communicated.' }),
+  communicatedAt: z.string().regex(/^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}$/, 'Give the date and time it was communicated.'),
+  readBack: z.boolean(),
+});
+export type CommunicationInput = z.output<typeof communicationSchema>;
+
+export interface AddendumDto {
+  id: number;
+  bodyHtml: string;
+  signedBy: string;
+  signedAt: string;
+  signedHash: string;
+}
+
+export interface CommunicationDto {
+  id: number;
+  ruleId: string | null;
+  finding: string;
+  recipientName: string;
+  recipientRole: string | null;
+  method: CommunicationMethod;
+  communicatedAt: string;
+  readBack: boolean;
+  recordedBy: string;
+  recordedAt: string;
+}
+
 /** What the server keeps of an evaluation (the engine's answer minus its echo of the inputs). */
 export type StoredEvaluation = Pick<EvaluationSuccess, 'derived' | 'flags' | 'findings' | 'assessments' | 'urgentPrompts' | 'algorithms' | 'patient' | 'options' | 'cautions'>;
 
@@ -75,6 +128,10 @@ export interface ReportDto {
   signedBy: string | null;
   signedAt: string | null;
   signedHash: string | null;
+  /** Signed addenda, oldest first (empty before signing). */
+  addenda: AddendumDto[];
+  /** Urgent findings communicated directly, oldest first. */
+  communications: CommunicationDto[];
 }
 
 /**
@@ -91,6 +148,8 @@ export interface ReportContext {
   accessionNumber: string;
   examTypeName: string;
   indication: string;
+  /** Who referred (name), where the page needs it. */
+  referrer?: string | null;
   patient: { name: string; mrn: string; sex: import('../exam-status').Sex; birthDate: string; ageYears: number };
   examDate: string;
   when: string;

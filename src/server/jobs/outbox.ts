@@ -4,6 +4,7 @@ import { db } from '../../db/connection';
 import { OutboxMessage } from '../../db/models';
 import { log } from '../log';
 import { config } from '../config';
+import { reportPdf } from '../pdf/report-pdf';
 import { clinicProfile } from '../services/settings';
 
 /** Waits before the next try: 30 s, 1, 2, 4, 8 … minutes, at most an hour. */
@@ -33,7 +34,9 @@ export async function deliverDueMail(transport: Transporter, opts: { workerId: s
   let failed = 0;
   for (const msg of claimed) {
     try {
-      const info = await transport.sendMail({ from, to: msg.toAddress, subject: msg.subject, text: msg.textBody, html: msg.htmlBody });
+      // A report's PDF is rendered now, from the signed report as it stands (with any addenda).
+      const attachments = msg.attachReportId === null ? [] : [await reportPdf(msg.attachReportId)].map((p) => ({ filename: p.filename, content: p.bytes, contentType: 'application/pdf' }));
+      const info = await transport.sendMail({ from, to: msg.toAddress, subject: msg.subject, text: msg.textBody, html: msg.htmlBody, attachments });
       await msg.update({ status: 'sent', sentAt: new Date(), attempts: msg.attempts + 1, claimedBy: null, claimedUntil: null, lastError: null, providerMessageId: String(info.messageId ?? '').slice(0, 200) });
       sent += 1;
     } catch (error) {

@@ -8,7 +8,7 @@ import type { MailContent } from './templates';
  * already used makes this a no-op (e.g. one reminder per exam).
  */
 export async function queueMail(
-  msg: MailContent & { kind: string; to: string; examId?: number | null; dedupeKey?: string | null },
+  msg: MailContent & { kind: string; to: string; examId?: number | null; dedupeKey?: string | null; attachReportId?: number | null },
   transaction: Transaction,
   now = new Date(),
 ): Promise<boolean> {
@@ -21,6 +21,7 @@ export async function queueMail(
       kind: msg.kind,
       dedupeKey: msg.dedupeKey ?? null,
       examId: msg.examId ?? null,
+      attachReportId: msg.attachReportId ?? null,
       toAddress: msg.to,
       subject: msg.subject,
       textBody: msg.text,

@@ -163,14 +163,14 @@ function nodules(doc: PDFKit.PDFDocument, m: ReportPdfModel): void {
 }
 
 function urgent(doc: PDFKit.PDFDocument, m: ReportPdfModel): void {
-  if (!m.urgentStatement || m.urgentStatement.length === 0) return;
+  if (m.urgentStatement.length === 0) return;
   const pad = 9;
   const width = CONTENT_WIDTH - 2 * pad;
   const text = m.urgentStatement.join('\n');
   const height = pad + 14 + heightOf(doc, text, width, { size: 9.5 }) + pad;
   const top = ensureSpace(doc, height + 12) + 10;
   doc.save().roundedRect(PAGE.left, top, CONTENT_WIDTH, height, 4).fillAndStroke(COLOR.highPanel, COLOR.highRule).restore();
-  write(doc, 'Urgent finding communicated', PAGE.left + pad, top + pad, width, { size: 9.5, weight: 'bold', color: COLOR.high });
+  write(doc, 'Direct communication of urgent findings', PAGE.left + pad, top + pad, width, { size: 9.5, weight: 'bold', color: COLOR.high });
   write(doc, text, PAGE.left + pad, doc.y + 2, width, { size: 9.5, color: COLOR.ink });
   doc.y = top + height;
 }
@@ -191,9 +191,9 @@ function addenda(doc: PDFKit.PDFDocument, m: ReportPdfModel): void {
   for (const a of m.addenda) {
     const y = ensureSpace(doc, 34) + 4;
     write(doc, a.heading, PAGE.left, y, CONTENT_WIDTH, { size: 9, weight: 'bold', color: COLOR.secondary });
-    for (const p of a.paragraphs) {
-      write(doc, p, PAGE.left, ensureSpace(doc, 14) + 2, CONTENT_WIDTH, { size: 9.5, lineGap: 2.5 });
-    }
+    doc.y += 2;
+    richText(doc, a.body);
+    write(doc, a.fingerprint, PAGE.left, ensureSpace(doc, 12) + 2, CONTENT_WIDTH, { size: 7.5, color: COLOR.muted });
     doc.y += 4;
   }
 }

@@ -12,6 +12,7 @@ import {
   tiradsLevelText,
   type FlagTone,
 } from '../../lib/report-form/display';
+import { communicationStatement } from '../../lib/report-text/communication';
 import { findingsToHtml } from '../../lib/report-text/findings-html';
 import type { ClinicProfile } from '../../lib/schemas/clinic';
 import type { ReportContext, ReportDto } from '../../lib/schemas/reports';
@@ -25,15 +26,7 @@ import { htmlToBlocks, type RichBlock } from './html-runs';
  * build it from fixed data.
  */
 
-/** Parts of a report that later work adds to ReportDto; they print whenever they are given. */
-export interface ReportPdfExtras {
-  /** The "urgent finding communicated" statement recorded by the reading physician. */
-  urgentStatement?: string | null;
-  /** Signed addenda, oldest first; `signedAt` is an ISO instant, `text` plain text. */
-  addenda?: ReadonlyArray<{ text: string; signedBy: string; signedAt: string }>;
-}
-
-export type PdfReport = ReportDto & ReportPdfExtras;
+export type PdfReport = ReportDto;
 
 export interface ReportPdfInput {
   report: PdfReport;
@@ -75,7 +68,8 @@ export interface PdfNoduleRow {
 
 export interface PdfAddendum {
   heading: string;
-  paragraphs: string[];
+  body: RichBlock[];
+  fingerprint: string;
 }
 
 export interface ReportPdfModel {
@@ -94,7 +88,8 @@ export interface ReportPdfModel {
   nodules: PdfNoduleRow[] | null;
   findings: RichBlock[];
   impression: RichBlock[];
-  urgentStatement: string[] | null;
+  /** One statement per urgent finding communicated directly (empty: none). */
+  urgentStatement: string[];
   signature: { statement: string; fingerprint: string | null };
   addenda: PdfAddendum[];
   caution: string;
@@ -120,13 +115,6 @@ export function clinicTime(iso: string, timeZone: string): string {
   const zone = fmt.formatToParts(instant).find((p) => p.type === 'timeZoneName')?.value;
   return `${formatInstant(instant, timeZone)}${zone ? ` ${zone}` : ''}`;
 }
-
-/** Plain text as paragraphs, one per non-empty line. */
-const paragraphs = (text: string): string[] =>
-  text
-    .split(/\r?\n/)
-    .map((line) => line.trim())
-    .filter(Boolean);
 
 function flagCells(f: Flag, sourceNumber: (text: string) => number): Pick<PdfMeasurementRow, 'result' | 'reference' | 'referenceNote' | 'source'> {
   const source = flagSourceText(f);
@@ -244,14 +232,15 @@ export function buildReportPdfModel(input: ReportPdfInput): ReportPdfModel {
     // Findings nobody edited were fixed at signing; the fallback only covers older rows.
     findings: htmlToBlocks(report.findingsHtml ?? findingsToHtml(report.findingsText)),
     impression: htmlToBlocks(report.impressionHtml ?? ''),
-    urgentStatement: report.urgentStatement ? paragraphs(report.urgentStatement) : null,
+    urgentStatement: report.communications.map((x) => communicationStatement(x, timeZone)),
     signature: {
       statement: `Electronically signed by ${signer} on ${clinicTime(report.signedAt, timeZone)}.`,
       fingerprint: report.signedHash,
     },
-    addenda: (report.addenda ?? []).map((a, i) => ({
+    addenda: report.addenda.map((a, i) => ({
       heading: `Addendum ${i + 1}, signed by ${a.signedBy} on ${clinicTime(a.signedAt, timeZone)}`,
-      paragraphs: paragraphs(a.text),
+      body: htmlToBlocks(a.bodyHtml),
+      fingerprint: `Content fingerprint (SHA-256): ${a.signedHash}`,
     })),
     caution: CAUTION_TEXT,
     runningHeader: `${c.patient.name} · MRN ${c.patient.mrn} · ${c.examTypeName} · ${statusLabel}`,

@@ -3,7 +3,7 @@ import { QueryTypes } from 'sequelize';
 import { db } from '../../db/connection';
 import { Report } from '../../db/models';
 import { canonicalJson } from '../../lib/canonical-json';
-import type { ReadingInput, ReportDto } from '../../lib/schemas/reports';
+import type { CommunicationDto, ReadingInput, ReportDto } from '../../lib/schemas/reports';
 import type { SessionUser } from '../../lib/session-user';
 import { verifyPassword } from '../auth/password';
 import { HttpError, notFound } from '../http/errors';
@@ -66,11 +66,35 @@ export async function saveReading(actor: SessionUser, reportId: number, input: R
   return dtoWithEditor((await Report.findByPk(reportId))!);
 }
 
+/** The urgent communications of a report as a signature covers them (the same values the report's DTO shows). */
+async function communicationsOf(reportId: number): Promise<NonNullable<Parameters<typeof signedContent>[0]['communications']>> {
+  const rows = await db().query<{ finding: string; recipient_name: string; recipient_role: string | null; method: CommunicationDto['method']; communicated_at: Date; read_back: number; recorded_by: string }>(
+    `SELECT c.finding, c.recipient_name, c.recipient_role, c.method, c.communicated_at, c.read_back, u.display_name AS recorded_by
+       FROM report_communications c JOIN users u ON u.id = c.recorded_by WHERE c.report_id = ? ORDER BY c.communicated_at, c.id`,
+    { replacements: [reportId], type: QueryTypes.SELECT },
+  );
+  return rows.map((c) => ({ finding: c.finding, recipientName: c.recipient_name, recipientRole: c.recipient_role, method: c.method, communicatedAt: new Date(c.communicated_at).toISOString(), readBack: Boolean(c.read_back), recordedBy: c.recorded_by }));
+}
+
+/**
+ * A signature (of a report or an addendum) asks for the physician's own password again; a wrong
+ * one is a 400 on the password field, and the refusal is audited.
+ */
+export async function checkSignerPassword(actor: SessionUser, reportId: number, password: string, refusedAction: string, message: string, requestId: string): Promise<void> {
+  const [row] = await db().query<{ password_hash: string }>('SELECT password_hash FROM users WHERE id = ?', { replacements: [actor.id], type: QueryTypes.SELECT });
+  if (!row || !(await verifyPassword(row.password_hash, password))) {
+    await audit({ actorUserId: actor.id, action: refusedAction, entityType: 'report', entityId: reportId, detail: { reason: 'password' }, requestId });
+    throw new HttpError(400, 'VALIDATION', message, { password: 'That is not your password.' });
+  }
+}
+
 /** What a signature covers, as one canonical JSON text (its sha256 is stored with the signature). */
 export function signedContent(x: {
   report: Pick<Report, 'id' | 'examId' | 'templateId' | 'templateVersion' | 'referenceSetVersion' | 'measurements' | 'nodules' | 'heightCm' | 'weightKg' | 'probeKind' | 'evaluation'>;
   findingsHtml: string;
   impressionHtml: string;
+  /** Urgent findings communicated before signing. */
+  communications?: ReadonlyArray<Pick<CommunicationDto, 'finding' | 'recipientName' | 'recipientRole' | 'method' | 'communicatedAt' | 'readBack' | 'recordedBy'>>;
   signer: { id: number; name: string };
   signedAt: Date;
 }): string {
@@ -90,6 +114,15 @@ export function signedContent(x: {
     assessments: evaluation.assessments ?? null,
     findingsHtml: x.findingsHtml,
     impressionHtml: x.impressionHtml,
+    communications: (x.communications ?? []).map((c) => ({
+      finding: c.finding,
+      recipientName: c.recipientName,
+      recipientRole: c.recipientRole,
+      method: c.method,
+      communicatedAt: c.communicatedAt,
+      readBack: c.readBack,
+      recordedBy: c.recordedBy,
+    })),
     signer: x.signer,
     signedAt: x.signedAt.toISOString(),
   });
@@ -101,20 +134,18 @@ export function signedContent(x: {
  * the other gets 409. A report without an impression is not signed.
  */
 export async function signReport(actor: SessionUser, reportId: number, input: { version: number; password: string }, requestId: string): Promise<ReportDto> {
-  const [row] = await db().query<{ password_hash: string }>('SELECT password_hash FROM users WHERE id = ?', { replacements: [actor.id], type: QueryTypes.SELECT });
-  if (!row || !(await verifyPassword(row.password_hash, input.password))) {
-    await audit({ actorUserId: actor.id, action: 'report.sign-refused', entityType: 'report', entityId: reportId, detail: { reason: 'password' }, requestId });
-    throw new HttpError(400, 'VALIDATION', 'The report was not signed.', { password: 'That is not your password.' });
-  }
+  await checkSignerPassword(actor, reportId, input.password, 'report.sign-refused', 'The report was not signed.', requestId);
   const report = await Report.findByPk(reportId);
   if (!report) throw notFound('The report');
   if (report.version !== input.version || report.status !== 'preliminary') return refusal(reportId);
+  // Urgent findings told before signing are part of what is signed (recorded once, never changed).
+  const communications = await communicationsOf(reportId);
   const impressionHtml = report.impressionHtml ?? '';
   if (plainText(impressionHtml) === '') throw new HttpError(400, 'VALIDATION', 'The report was not signed.', { impressionHtml: 'Write the impression before signing.' });
   // Findings nobody edited are the engine's generated text, fixed now as the signed findings.
   const findingsHtml = report.findingsHtml ?? findingsToHtml(report.findingsText);
   const signedAt = new Date();
-  const hash = createHash('sha256').update(signedContent({ report, findingsHtml, impressionHtml, signer: { id: actor.id, name: actor.displayName }, signedAt })).digest('hex');
+  const hash = createHash('sha256').update(signedContent({ report, findingsHtml, impressionHtml, communications, signer: { id: actor.id, name: actor.displayName }, signedAt })).digest('hex');
   const applied = await db().transaction(async (transaction) => {
       const [, changed] = await db().query(
         `UPDATE reports SET status = 'final', findings_html = ?, signed_by = ?, signed_at = ?, signed_hash = ?, updated_by = ?, updated_at = ?, version = version + 1

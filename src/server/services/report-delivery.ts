@@ -32,7 +32,7 @@ export async function queueDelivery(x: { reportId: number; reason: 'final' | 'ad
     await audit({ actorUserId: x.actorUserId, action: 'report.delivery-skipped', entityType: 'report', entityId: x.reportId, detail: { reason: 'no referring clinician with an e-mail address' }, requestId: x.requestId }, transaction);
     return false;
   }
-  const [{ linkDays }, clinic] = await Promise.all([reportDelivery(transaction), clinicProfile(transaction)]);
+  const [{ linkDays, attachPdf }, clinic] = await Promise.all([reportDelivery(transaction), clinicProfile(transaction)]);
   const token = randomBytes(32).toString('base64url');
   const expiresAt = new Date(now.getTime() + linkDays * 86_400_000);
   const link = await ReportLink.create({ reportId: x.reportId, referrerId: row.referrer_id, tokenHash: tokenHash(token), reason: x.reason, expiresAt }, { transaction });
@@ -45,8 +45,9 @@ export async function queueDelivery(x: { reportId: number; reason: 'final' | 'ad
     expiresOn: formatDay(zonedDate(expiresAt, clinic.timeZone)),
     reason: x.reason,
   });
-  await queueMail({ ...mail, kind: 'report-ready', to: row.email, examId: row.exam_id }, transaction, now);
-  await audit({ actorUserId: x.actorUserId, action: 'report.delivery-queued', entityType: 'report', entityId: x.reportId, detail: { linkId: link.id, referrerId: row.referrer_id, reason: x.reason }, requestId: x.requestId }, transaction);
+  // The PDF goes with the e-mail only where the clinic allows it; it is made when the e-mail is sent.
+  await queueMail({ ...mail, kind: 'report-ready', to: row.email, examId: row.exam_id, attachReportId: attachPdf ? x.reportId : null }, transaction, now);
+  await audit({ actorUserId: x.actorUserId, action: 'report.delivery-queued', entityType: 'report', entityId: x.reportId, detail: { linkId: link.id, referrerId: row.referrer_id, reason: x.reason, pdfAttached: attachPdf }, requestId: x.requestId }, transaction);
   return true;
 }
 

@@ -1,19 +1,21 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '../../db/connection';
-import { Exam, ExamType, Patient, Probe, Report, Room, Scanner, User } from '../../db/models';
-import { evaluate, getTemplate, missingRequired, REFERENCE_SET_VERSION, type EvaluationSuccess, type ReferenceRange, type TemplateId } from '../../lib/clinical';
+import { Exam, ExamType, Patient, Probe, Referrer, Report, ReportAddendum, ReportCommunication, Room, Scanner, User } from '../../db/models';
+import { evaluate, getTemplate, missingRequired, REFERENCE_SET_VERSION, type EvaluationSuccess, type PriorExamInput, type ReferenceRange, type TemplateId } from '../../lib/clinical';
 import { canMoveExam } from '../../lib/exam-status';
-import { abnormalCount, storedEvaluation, type DraftSavedDto, type ReportContext, type ReportDto, type SaveDraftInput, type StoredEvaluation } from '../../lib/schemas/reports';
+import { abnormalCount, storedEvaluation, type AddendumDto, type CommunicationDto, type DraftSavedDto, type ReportContext, type ReportDto, type SaveDraftInput, type StoredEvaluation } from '../../lib/schemas/reports';
 import type { SessionUser } from '../../lib/session-user';
 import { ageOn, formatInstant, zonedDate } from '../../lib/time';
 import { HttpError, notFound, ruleBroken, stale } from '../http/errors';
 import { audit } from './audit';
 import { afterChange, lockExam } from './booking';
+import { LATEST_PRIOR_ID_SQL, priorInput } from './priors';
 import { referenceSet } from './reference-ranges';
 import { clinicProfile } from './settings';
 
-function toDto(r: Report, names: ReadonlyMap<number, string> = new Map()): ReportDto {
+function toDto(r: Report, names: ReadonlyMap<number, string> = new Map(), added: { addenda: ReportAddendum[]; communications: ReportCommunication[] } = { addenda: [], communications: [] }): ReportDto {
   const name = (id: number | null | undefined) => (id == null ? null : (names.get(id) ?? null));
+  const person = (id: number) => names.get(id) ?? 'a physician';
   return {
     id: r.id,
     examId: r.examId,
@@ -41,20 +43,46 @@ function toDto(r: Report, names: ReadonlyMap<number, string> = new Map()): Repor
     signedBy: name(r.signedBy),
     signedAt: r.signedAt?.toISOString() ?? null,
     signedHash: r.signedHash ?? null,
+    addenda: added.addenda.map((a): AddendumDto => ({ id: a.id, bodyHtml: a.bodyHtml, signedBy: person(a.signedBy), signedAt: a.signedAt.toISOString(), signedHash: a.signedHash })),
+    communications: added.communications.map(
+      (c): CommunicationDto => ({
+        id: c.id,
+        ruleId: c.ruleId,
+        finding: c.finding,
+        recipientName: c.recipientName,
+        recipientRole: c.recipientRole,
+        method: c.method,
+        communicatedAt: c.communicatedAt.toISOString(),
+        readBack: c.readBack,
+        recordedBy: person(c.recordedBy),
+        recordedAt: c.createdAt.toISOString(),
+      }),
+    ),
   };
 }
 
-/** A report with the names of the people it mentions (last editor, reader, signer), in one read. */
+/**
+ * A report with what was added to it (addenda, urgent communications; a draft has none) and the
+ * names of the people it mentions (last editor, reader, signer, addenda signers, recorders).
+ */
 export async function dtoWithEditor(r: Report, transaction?: Transaction): Promise<ReportDto> {
-  const ids = [...new Set([r.updatedBy, r.claimedBy, r.signedBy].filter((id): id is number => typeof id === 'number'))];
+  const [addenda, communications] =
+    r.status === 'draft'
+      ? [[], []]
+      : await Promise.all([
+          ReportAddendum.findAll({ where: { reportId: r.id }, order: [['signedAt', 'ASC'], ['id', 'ASC']], transaction }),
+          ReportCommunication.findAll({ where: { reportId: r.id }, order: [['communicatedAt', 'ASC'], ['id', 'ASC']], transaction }),
+        ]);
+  const ids = [...new Set([r.updatedBy, r.claimedBy, r.signedBy, ...addenda.map((a) => a.signedBy), ...communications.map((c) => c.recordedBy)].filter((id): id is number => typeof id === 'number'))];
   const users = ids.length ? await User.findAll({ where: { id: ids }, attributes: ['id', 'displayName'], transaction }) : [];
-  return toDto(r, new Map(users.map((u) => [u.id, u.displayName])));
+  return toDto(r, new Map(users.map((u) => [u.id, u.displayName])), { addenda, communications });
 }
 
 
 /**
- * Runs the engine on a report's entries with the exam's patient factors and the stored
- * reference set; values outside plausible bounds are a 400 naming each field.
+ * Runs the engine on a report's entries with the exam's patient factors, the stored reference
+ * set and the latest signed prior of the same template (growth since then); values outside
+ * plausible bounds are a 400 naming each field.
  */
 function evaluateEntries(
   facts: { scheduledStart: Date; sex: Patient['sex']; birthDate: string },
@@ -62,12 +90,16 @@ function evaluateEntries(
   entries: Pick<SaveDraftInput, 'measurements' | 'nodules' | 'heightCm' | 'weightKg'>,
   timeZone: string,
   referenceRanges: readonly ReferenceRange[],
+  prior: PriorExamInput | null,
 ): EvaluationSuccess {
+  const examDate = zonedDate(facts.scheduledStart, timeZone);
   const result = evaluate({
     templateId,
     measurements: entries.measurements,
     nodules: entries.nodules as never,
-    patient: { sex: facts.sex, birthDate: facts.birthDate, examDate: zonedDate(facts.scheduledStart, timeZone), heightCm: entries.heightCm, weightKg: entries.weightKg },
+    patient: { sex: facts.sex, birthDate: facts.birthDate, examDate, heightCm: entries.heightCm, weightKg: entries.weightKg },
+    // Growth is judged between exam days: an earlier exam the same day is no prior for it.
+    prior: prior !== null && prior.examDate < examDate ? prior : null,
     referenceRanges,
   });
   if (!result.ok) throw new HttpError(400, 'VALIDATION', 'Some values are outside what is plausible; check the units.', result.fieldErrors);
@@ -117,6 +149,16 @@ export async function startExam(actor: SessionUser, examId: number, version: num
   );
 }
 
+/** The engine's prior for a report, read inside the caller's transaction. */
+async function latestPriorInTx(reportId: number, timeZone: string, transaction: Transaction): Promise<PriorExamInput | null> {
+  const [row] = await db().query<{ id: number | null }>(`SELECT ${LATEST_PRIOR_ID_SQL} AS id FROM reports r JOIN exams e ON e.id = r.exam_id WHERE r.id = ?`, {
+    replacements: [reportId],
+    type: QueryTypes.SELECT,
+    transaction,
+  });
+  return priorInput(row?.id ?? null, timeZone, transaction);
+}
+
 /** Loads a report for a change, locked, checking the version the form saw. */
 async function lockReport(id: number, version: number, transaction: Transaction): Promise<Report> {
   const report = await Report.findByPk(id, { transaction, lock: transaction.LOCK.UPDATE });
@@ -153,9 +195,10 @@ async function draftHead(reportId: number, probeId: number | null) {
     birth_date: string;
     chosen_scanner_id: number | null;
     chosen_kind: Report['probeKind'];
+    prior_report_id: number | null;
   }>(
     `SELECT r.version, r.status, r.template_id, r.exam_id, r.probe_kind, e.scanner_id, e.scheduled_start, p.sex, p.birth_date,
-            pr.scanner_id AS chosen_scanner_id, pr.kind AS chosen_kind
+            pr.scanner_id AS chosen_scanner_id, pr.kind AS chosen_kind, ${LATEST_PRIOR_ID_SQL} AS prior_report_id
        FROM reports r JOIN exams e ON e.id = r.exam_id JOIN patients p ON p.id = e.patient_id
        LEFT JOIN probes pr ON pr.id = ?
       WHERE r.id = ?`,
@@ -177,32 +220,36 @@ export async function reportRefusal(reportId: number, needs: Report['status'], w
   throw new HttpError(409, err.code, err.message, undefined, { current: await dtoWithEditor(current) });
 }
 
-const notADraft = (status: Report['status']) => new HttpError(409, 'CONFLICT', `This report is ${status} and can no longer be edited here.`);
-const staleSave = (reportId: number) => reportRefusal(reportId, 'draft', notADraft);
+const notEditable = (needs: Report['status']) => (status: Report['status']) =>
+  new HttpError(409, 'CONFLICT', needs === 'draft' ? `This report is ${status} and can no longer be edited here.` : `This report is ${status}; measurements can be corrected only while it is being read.`);
+const staleSave = (reportId: number, needs: Report['status']) => reportRefusal(reportId, needs, notEditable(needs));
 
 /**
- * Autosave of a draft: the server recomputes with the same engine and stores the entries, the
- * evaluation, the template and reference-set versions. Refuses stale versions (409) and values
- * outside plausible bounds (400).
+ * Saving a report's entries: the sonographer's autosave of a draft, and the reading physician's
+ * corrections to a preliminary report. The server recomputes with the same engine and stores
+ * the entries, the evaluation, the template and reference-set versions. Refuses stale versions
+ * (409) and values outside plausible bounds (400).
  *
  * The busiest write in the app (every pause in typing), so it does the least that is safe: one
  * read of what the evaluation needs, then a transaction holding a single guarded UPDATE (it
- * applies only to the version the form saw, still a draft; the row lock it takes is the whole
- * concurrency control) and the audit event. Nothing is re-read; the answer says what was stored.
+ * applies only to the version the form saw, still in the status this role edits; the row lock
+ * it takes is the whole concurrency control) and the audit event. Nothing is re-read; the answer
+ * says what was stored. A physician's correction is audited with the fields it changed.
  */
 export async function saveDraft(actor: SessionUser, reportId: number, input: SaveDraftInput, requestId: string): Promise<DraftSavedDto> {
+  const needs: Report['status'] = actor.role === 'radiologist' ? 'preliminary' : 'draft';
   const [{ timeZone }, referenceRanges, head] = await Promise.all([clinicProfile(), referenceSet(REFERENCE_SET_VERSION), draftHead(reportId, input.probeId)]);
   if (!head) throw notFound('The report');
-  if (head.version !== input.version || head.status !== 'draft') return staleSave(reportId);
+  if (head.version !== input.version || head.status !== needs) return staleSave(reportId, needs);
   if (input.probeId !== null && head.chosen_scanner_id !== head.scanner_id) {
     throw new HttpError(400, 'VALIDATION', 'Some values need correcting.', { probeId: 'Choose a probe of this room’s scanner.' });
   }
   const facts = { scheduledStart: new Date(head.scheduled_start), sex: head.sex, birthDate: String(head.birth_date).slice(0, 10) };
-  const result = evaluateEntries(facts, head.template_id, input, timeZone, referenceRanges);
+  const result = evaluateEntries(facts, head.template_id, input, timeZone, referenceRanges, await priorInput(head.prior_report_id, timeZone));
   const saved: DraftSavedDto = {
     id: reportId,
     examId: head.exam_id,
-    status: 'draft',
+    status: needs,
     version: head.version + 1,
     templateVersion: getTemplate(head.template_id as TemplateId)!.version,
     referenceSetVersion: result.referenceSetVersion,
@@ -211,11 +258,14 @@ export async function saveDraft(actor: SessionUser, reportId: number, input: Sav
     updatedBy: actor.displayName,
   };
   const applied = await db().transaction(async (transaction) => {
+    // What a correction changes is worth the extra read; the sonographer's autosave skips it.
+    const before = needs === 'preliminary' ? await Report.findByPk(reportId, { transaction, lock: transaction.LOCK.UPDATE, attributes: ['id', 'measurements', 'nodules', 'heightCm', 'weightKg', 'version'] }) : null;
+    if (before && before.version !== input.version) return false;
     const [, changed] = await db().query(
       `UPDATE reports SET measurements = ?, nodules = ?, height_cm = ?, weight_kg = ?, probe_id = ?, probe_kind = ?, evaluation = ?,
               findings_text = ?, abnormal_count = ?, template_version = ?, reference_set_version = ?, updated_by = ?,
               version = version + 1, updated_at = ?
-        WHERE id = ? AND version = ? AND status = 'draft'`,
+        WHERE id = ? AND version = ? AND status = ?`,
       {
         replacements: [
           JSON.stringify(input.measurements),
@@ -233,6 +283,7 @@ export async function saveDraft(actor: SessionUser, reportId: number, input: Sav
           new Date(saved.updatedAt),
           reportId,
           input.version,
+          needs,
         ],
         type: QueryTypes.UPDATE,
         transaction,
@@ -240,10 +291,23 @@ export async function saveDraft(actor: SessionUser, reportId: number, input: Sav
     );
     // Someone saved (or submitted) between the read and the write: nothing was written.
     if (changed !== 1) return false;
-    await audit({ actorUserId: actor.id, action: 'report.save', entityType: 'report', entityId: reportId, detail: { examId: head.exam_id, version: input.version, fields: Object.keys(input.measurements).length, nodules: input.nodules.length }, requestId }, transaction);
+    const detail = before
+      ? { examId: head.exam_id, version: input.version, changed: changedEntries(before, input) }
+      : { examId: head.exam_id, version: input.version, fields: Object.keys(input.measurements).length, nodules: input.nodules.length };
+    await audit({ actorUserId: actor.id, action: before ? 'report.correct' : 'report.save', entityType: 'report', entityId: reportId, detail, requestId }, transaction);
     return true;
   });
-  return applied ? saved : staleSave(reportId);
+  return applied ? saved : staleSave(reportId, needs);
+}
+
+/** Which entries a correction changed, by field code (values are not logged: they are patient data). */
+function changedEntries(before: Pick<Report, 'measurements' | 'nodules' | 'heightCm' | 'weightKg'>, after: SaveDraftInput): string[] {
+  const codes = new Set([...Object.keys(before.measurements), ...Object.keys(after.measurements)]);
+  const changed = [...codes].filter((c) => before.measurements[c] !== after.measurements[c]);
+  if (JSON.stringify(before.nodules) !== JSON.stringify(after.nodules)) changed.push('nodules');
+  if (Number(before.heightCm ?? NaN) !== Number(after.heightCm ?? NaN) && !(before.heightCm == null && after.heightCm == null)) changed.push('heightCm');
+  if (Number(before.weightKg ?? NaN) !== Number(after.weightKg ?? NaN) && !(before.weightKg == null && after.weightKg == null)) changed.push('weightKg');
+  return changed.sort();
 }
 
 /**
@@ -269,7 +333,7 @@ export async function submitPreliminary(actor: SessionUser, reportId: number, ve
         );
       }
       const facts = await examFactsFor(exam!.id, transaction);
-      const result = evaluateEntries(facts, report.templateId, { ...report.get(), nodules: report.nodules as SaveDraftInput['nodules'] }, timeZone, referenceRanges);
+      const result = evaluateEntries(facts, report.templateId, { ...report.get(), nodules: report.nodules as SaveDraftInput['nodules'] }, timeZone, referenceRanges, await latestPriorInTx(report.id, timeZone, transaction));
       const now = new Date();
       await report.update(
         { status: 'preliminary', evaluation: storedEvaluation(result), findingsText: result.findings.join('\n'), abnormalCount: abnormalCount(result), submittedBy: actor.id, submittedAt: now, updatedBy: actor.id, version: report.version + 1 },
@@ -305,8 +369,9 @@ export async function reportContext(examId: number): Promise<ReportContext> {
       { model: ExamType, as: 'examType' },
       { model: Room, as: 'room' },
       { model: User, as: 'sonographer', attributes: ['displayName'] },
+      { model: Referrer, as: 'referrer', attributes: ['name'] },
     ],
-  })) as (Exam & { patient: Patient; examType: ExamType; room: Room; sonographer: User }) | null;
+  })) as (Exam & { patient: Patient; examType: ExamType; room: Room; sonographer: User; referrer: Referrer | null }) | null;
   if (!exam) throw notFound('The exam');
   const scanner = await Scanner.findByPk(exam.scannerId);
   const probes = await Probe.findAll({ where: { scannerId: scanner!.id }, order: [['kind', 'ASC'], ['id', 'ASC']] });
@@ -318,6 +383,7 @@ export async function reportContext(examId: number): Promise<ReportContext> {
     accessionNumber: exam.accessionNumber,
     examTypeName: exam.examType.name,
     indication: exam.indication,
+    referrer: exam.referrer?.name ?? null,
     patient: { name: `${exam.patient.familyName}, ${exam.patient.givenName}`, mrn: exam.patient.mrn, sex: exam.patient.sex, birthDate: exam.patient.birthDate, ageYears: ageOn(exam.patient.birthDate, examDate) },
     examDate,
     when: formatInstant(exam.scheduledStart, timeZone),
