@@ -140,6 +140,9 @@ export interface ReportDto {
  */
 export type DraftSavedDto = Pick<ReportDto, 'id' | 'examId' | 'status' | 'version' | 'templateVersion' | 'referenceSetVersion' | 'abnormalCount' | 'updatedAt' | 'updatedBy'>;
 
+/** The answer to a signature (report or addendum): what was signed, not the whole report again (the page reloads). */
+export type SignedDto = Pick<ReportDto, 'id' | 'examId' | 'status' | 'version' | 'signedBy' | 'signedAt' | 'signedHash' | 'updatedAt'>;
+
 /** The exam facts a report form needs (patient factors come from the exam, not the form). */
 export interface ReportContext {
   examId: number;

@@ -1,6 +1,6 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '../../db/connection';
-import type { NoduleInput, PriorExamInput, TemplateDef } from '../../lib/clinical';
+import { TEMPLATES, type NoduleInput, type PriorExamInput, type TemplateDef } from '../../lib/clinical';
 import { compareWithPriors, type ComparedExam, type PriorComparison } from '../../lib/report-compare/compare';
 import type { ReportContext, ReportDto, StoredEvaluation } from '../../lib/schemas/reports';
 import { zonedDate } from '../../lib/time';
@@ -39,13 +39,20 @@ export async function priorExams(x: { reportId: number; timeZone: string; limit?
   }));
 }
 
+/** Templates whose evaluation reads the latest prior (growth since then), as SQL string literals. */
+const READS_PRIOR = Object.values(TEMPLATES)
+  .filter((t) => t.readsPrior)
+  .map((t) => `'${t.id.replace(/[^a-z0-9-]/g, '')}'`)
+  .join(', ');
+
 /**
  * SQL for the id of a report's latest signed prior, as a column of a query over `reports r`
- * joined to `exams e` (so the autosave learns it in the read it already makes).
+ * joined to `exams e` (so the autosave learns it in the read it already makes); NULL without a
+ * lookup for templates whose evaluation does not read a prior.
  */
-export const LATEST_PRIOR_ID_SQL = `(SELECT r2.id FROM exams e2 JOIN reports r2 ON r2.exam_id = e2.id
+export const LATEST_PRIOR_ID_SQL = `IF(r.template_id IN (${READS_PRIOR || "''"}), (SELECT r2.id FROM exams e2 JOIN reports r2 ON r2.exam_id = e2.id
     WHERE e2.patient_id = e.patient_id AND e2.scheduled_start < e.scheduled_start AND r2.template_id = r.template_id AND r2.status IN ('final', 'amended')
-    ORDER BY e2.scheduled_start DESC LIMIT 1)`;
+    ORDER BY e2.scheduled_start DESC LIMIT 1), NULL)`;
 
 const priorInputs = new Map<number, PriorExamInput>();
 const PRIOR_CACHE_SIZE = 500;

@@ -3,7 +3,7 @@ import { QueryTypes } from 'sequelize';
 import { db } from '../../db/connection';
 import { Report } from '../../db/models';
 import { canonicalJson } from '../../lib/canonical-json';
-import type { CommunicationDto, ReadingInput, ReportDto } from '../../lib/schemas/reports';
+import type { CommunicationDto, ReadingInput, ReportDto, SignedDto } from '../../lib/schemas/reports';
 import type { SessionUser } from '../../lib/session-user';
 import { verifyPassword } from '../auth/password';
 import { HttpError, notFound } from '../http/errors';
@@ -133,13 +133,17 @@ export function signedContent(x: {
  * sha256 of the signed content), `final`, and the referrer's e-mail queued. Of two physicians signing at once exactly one wins;
  * the other gets 409. A report without an impression is not signed.
  */
-export async function signReport(actor: SessionUser, reportId: number, input: { version: number; password: string }, requestId: string): Promise<ReportDto> {
-  await checkSignerPassword(actor, reportId, input.password, 'report.sign-refused', 'The report was not signed.', requestId);
-  const report = await Report.findByPk(reportId);
+export async function signReport(actor: SessionUser, reportId: number, input: { version: number; password: string }, requestId: string): Promise<SignedDto> {
+  // The report and its urgent communications are read while the password is checked (argon2id
+  // runs off the main thread); nothing is decided before the password holds.
+  const [, report, communications] = await Promise.all([
+    checkSignerPassword(actor, reportId, input.password, 'report.sign-refused', 'The report was not signed.', requestId),
+    Report.findByPk(reportId),
+    // Urgent findings told before signing are part of what is signed (recorded once, never changed).
+    communicationsOf(reportId),
+  ]);
   if (!report) throw notFound('The report');
   if (report.version !== input.version || report.status !== 'preliminary') return refusal(reportId);
-  // Urgent findings told before signing are part of what is signed (recorded once, never changed).
-  const communications = await communicationsOf(reportId);
   const impressionHtml = report.impressionHtml ?? '';
   if (plainText(impressionHtml) === '') throw new HttpError(400, 'VALIDATION', 'The report was not signed.', { impressionHtml: 'Write the impression before signing.' });
   // Findings nobody edited are the engine's generated text, fixed now as the signed findings.
@@ -159,5 +163,5 @@ export async function signReport(actor: SessionUser, reportId: number, input: { 
       return true;
   });
   if (!applied) return refusal(reportId);
-  return dtoWithEditor((await Report.findByPk(reportId))!);
+  return { id: reportId, examId: report.examId, status: 'final', version: input.version + 1, signedBy: actor.displayName, signedAt: signedAt.toISOString(), signedHash: hash, updatedAt: signedAt.toISOString() };
 }

@@ -86,6 +86,8 @@ export interface TemplateDef {
   version: string;
   title: string;
   defaultProbe: ProbeKind;
+  /** Whether the evaluation reads the latest prior exam (growth since then); callers skip looking it up otherwise. */
+  readsPrior: boolean;
   sections: readonly SectionDef[];
   derived: readonly DerivedDef[];
   referenceChecks: readonly ReferenceCheck[];

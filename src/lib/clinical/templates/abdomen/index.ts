@@ -9,6 +9,7 @@ export const ABDOMEN_TEMPLATE: TemplateDef = {
   version: '1.1.0',
   title: 'Abdominal ultrasound (complete)',
   defaultProbe: DEFAULT_PROBE.abdomen,
+  readsPrior: true,
   sections: ABDOMEN_SECTIONS,
   derived: ABDOMEN_DERIVED,
   referenceChecks: [

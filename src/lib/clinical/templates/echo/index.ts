@@ -9,6 +9,7 @@ export const ECHO_TEMPLATE: TemplateDef = {
   version: '1.1.0',
   title: 'Transthoracic echocardiogram (adult)',
   defaultProbe: DEFAULT_PROBE.echo,
+  readsPrior: false,
   sections: ECHO_SECTIONS,
   derived: ECHO_DERIVED,
   referenceChecks: ECHO_REFERENCE_CHECKS,

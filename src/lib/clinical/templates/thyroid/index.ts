@@ -9,6 +9,7 @@ export const THYROID_TEMPLATE: TemplateDef = {
   version: '1.1.0',
   title: 'Thyroid ultrasound',
   defaultProbe: DEFAULT_PROBE.thyroid,
+  readsPrior: true,
   sections: THYROID_SECTIONS,
   derived: THYROID_DERIVED,
   referenceChecks: [
