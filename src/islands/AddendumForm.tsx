@@ -1,6 +1,7 @@
 import { useState } from 'react';
 import { api, ApiError } from '../lib/api-client';
 import { RichTextField } from './reading/RichTextField';
+import { SignerPassword } from './reading/SignerPassword';
 
 export interface AddendumFormProps {
   reportId: number;
@@ -49,19 +50,7 @@ export default function AddendumForm(p: AddendumFormProps) {
       ) : (
         <form onSubmit={sign} className="space-y-4" aria-label="Write and sign an addendum">
           <RichTextField id="addendum-body" label="Addendum text" value={body} onChange={setBody} error={fields.bodyHtml ?? null} />
-          <label className="block max-w-xs">
-            <span className="field-label">Your password</span>
-            <input
-              type="password"
-              autoComplete="current-password"
-              className="field-input"
-              value={password}
-              onChange={(e) => setPassword(e.target.value)}
-              aria-invalid={fields.password ? true : undefined}
-              aria-describedby={fields.password ? 'addendum-password-error' : undefined}
-            />
-          </label>
-          {fields.password && <p id="addendum-password-error" role="alert" className="field-error">{fields.password}</p>}
+          <SignerPassword id="addendum-password" value={password} onChange={setPassword} error={fields.password} />
           {problem && <p role="alert" className="field-error">{problem}</p>}
           <div className="flex gap-2">
             <button type="submit" className="btn-primary" disabled={busy || password === ''}>{busy ? 'Signing…' : 'Sign addendum'}</button>

@@ -1,7 +1,8 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { api, ApiError } from '../lib/api-client';
+import { api } from '../lib/api-client';
+import { showApiError } from './forms/api-errors';
 import { changePasswordSchema, type ChangePasswordInput } from '../lib/schemas/users';
 import { Field } from './users/Field';
 
@@ -25,10 +26,7 @@ export default function ChangePassword() {
       reset();
       setDone(true);
     } catch (error) {
-      if (error instanceof ApiError) {
-        for (const [f, message] of Object.entries(error.fields)) setError(f as keyof ChangePasswordInput, { message });
-        if (Object.keys(error.fields).length === 0) setError('root', { message: error.message });
-      } else setError('root', { message: 'The password could not be changed.' });
+      showApiError(error, setError, 'The password could not be changed.');
     }
   });
 

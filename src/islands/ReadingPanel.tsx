@@ -3,6 +3,7 @@ import { api, ApiError } from '../lib/api-client';
 import type { ReportDto } from '../lib/schemas/reports';
 import { formatInstant } from '../lib/time';
 import { RichTextField } from './reading/RichTextField';
+import { SignerPassword } from './reading/SignerPassword';
 
 export interface ReadingPanelProps {
   reportId: number;
@@ -173,20 +174,7 @@ export default function ReadingPanel(p: ReadingPanelProps) {
       {signing && (
         <form className="space-y-3 rounded-md bg-ink-50 p-4 ring-1 ring-ink-100" aria-label="Sign the report" onSubmit={sign}>
           <p className="text-sm text-ink-700">Signing makes this report final: it can no longer be edited, only corrected by an addendum. Enter your password to sign as yourself.</p>
-          <label className="block max-w-xs">
-            <span className="field-label">Your password</span>
-            <input
-              ref={passwordRef}
-              type="password"
-              autoComplete="current-password"
-              className="mt-1 w-full rounded-md border border-ink-200 px-3 py-2 text-sm focus:outline-none focus:ring-2 focus:ring-crest-500"
-              value={password}
-              onChange={(e) => setPassword(e.target.value)}
-              aria-invalid={fields.password ? true : undefined}
-              aria-describedby={fields.password ? 'sign-password-error' : undefined}
-            />
-          </label>
-          {fields.password && <p id="sign-password-error" role="alert" className="field-error">{fields.password}</p>}
+          <SignerPassword id="sign-password" value={password} onChange={setPassword} error={fields.password} inputRef={passwordRef} />
           <div className="flex gap-2">
             <button type="submit" className="btn-primary" disabled={busy || password === ''}>{busy ? 'Signing…' : 'Sign'}</button>
             <button type="button" className="btn-quiet" disabled={busy} onClick={() => { setSigning(false); setPassword(''); }}>Cancel</button>

@@ -1,7 +1,8 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
-import { api, ApiError } from '../lib/api-client';
+import { api } from '../lib/api-client';
+import { showApiError } from './forms/api-errors';
 import { COMMUNICATION_METHODS, communicationSchema, type CommunicationInput } from '../lib/schemas/reports';
 import { zonedClock, zonedDate } from '../lib/time';
 import { Field } from './users/Field';
@@ -48,10 +49,7 @@ export default function UrgentCommunication(p: UrgentCommunicationProps) {
       await api(`/api/reports/${p.reportId}/communications`, { method: 'POST', body: values });
       window.location.reload();
     } catch (error) {
-      if (error instanceof ApiError) {
-        for (const [f, message] of Object.entries(error.fields)) setError(f as keyof CommunicationInput, { message });
-        if (Object.keys(error.fields).length === 0) setError('root', { message: error.message });
-      } else setError('root', { message: 'The communication could not be recorded.' });
+      showApiError(error, setError, 'The communication could not be recorded.');
     }
   });
 

@@ -24,14 +24,15 @@ export type ReadingInput = z.infer<typeof readingSchema>;
 
 export const claimSchema = z.object({ takeOver: z.boolean().default(false) });
 
-/** Signing asks for the physician's password again. */
-export const signSchema = z.object({ version: z.number().int().min(0), password: z.string().min(1, 'Enter your password to sign.').max(200) });
+/** Signing (a report or an addendum) asks for the physician's password again. */
+const signerPassword = z.string().min(1, 'Enter your password to sign.').max(200);
+export const signSchema = z.object({ version: z.number().int().min(0), password: signerPassword });
 
 /** An addendum to a signed report: its text, and the physician's password again (signed the same way as the report). */
 export const addendumSchema = z.object({
   version: z.number().int().min(0),
   bodyHtml: reportHtml,
-  password: z.string().min(1, 'Enter your password to sign.').max(200),
+  password: signerPassword,
 });
 export type AddendumInput = z.infer<typeof addendumSchema>;
 

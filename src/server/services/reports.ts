@@ -259,8 +259,7 @@ export async function saveDraft(actor: SessionUser, reportId: number, input: Sav
   };
   const applied = await db().transaction(async (transaction) => {
     // What a correction changes is worth the extra read; the sonographer's autosave skips it.
-    const before = needs === 'preliminary' ? await Report.findByPk(reportId, { transaction, lock: transaction.LOCK.UPDATE, attributes: ['id', 'measurements', 'nodules', 'heightCm', 'weightKg', 'version'] }) : null;
-    if (before && before.version !== input.version) return false;
+    const before = needs === 'preliminary' ? await Report.findByPk(reportId, { transaction, lock: transaction.LOCK.UPDATE, attributes: ['id', 'measurements', 'nodules', 'heightCm', 'weightKg'] }) : null;
     const [, changed] = await db().query(
       `UPDATE reports SET measurements = ?, nodules = ?, height_cm = ?, weight_kg = ?, probe_id = ?, probe_kind = ?, evaluation = ?,
               findings_text = ?, abnormal_count = ?, template_version = ?, reference_set_version = ?, updated_by = ?,
