@@ -120,6 +120,11 @@ export const sections: BenchSection[] = [
     run: async () => (await import('./bench/report-sign.ts')).reportSignBench(),
   },
   {
+    name: 'DICOM listener: worklist for a day of 300 exams, and a 20 MB multi-frame object (storescu)',
+    key: 'dicom',
+    run: async () => (await import('./bench/dicom.ts')).dicomBench(),
+  },
+  {
     name: 'Final report PDF, full echo report, rendered in-process (pdfkit)',
     key: 'pdf',
     run: async () => (await import('./bench/report-pdf.ts')).reportPdfBench(),

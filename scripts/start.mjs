@@ -43,7 +43,7 @@ async function main() {
   const { mariadbPaths, startMariaDb, provision } = await import('./lib/mariadb.mjs');
   const { buildIfStale } = await import('./lib/build.mjs');
   const { dbTask, startWebServer } = await import('./lib/stack.mjs');
-  const { startMaildev, startPaymentsFake, startWorker } = await import('./lib/standins.mjs');
+  const { startDicomListener, startMaildev, startPaymentsFake, startWorker } = await import('./lib/standins.mjs');
   const { DEMO_USERS, DEMO_PASSWORD } = await loadDemoUsers();
 
   const envFile = path.join(root, '.env');
@@ -60,6 +60,7 @@ async function main() {
   await stopStale(db);
   if (!(await portFree(port, env.HOST))) fail(`port ${port} is already in use by another program; set PORT in .env to a free port, or stop that program.`);
   if (!(await portFree(dbPort))) fail(`port ${dbPort} (the database) is already in use by another program; set DB_PORT in .env to a free port.`);
+  if (!(await portFree(Number(env.DICOM_PORT), env.DICOM_HOST))) fail(`port ${env.DICOM_PORT} (the DICOM listener) is already in use by another program; set DICOM_PORT in .env to a free port.`);
   for (const key of ['MAIL_SMTP_PORT', 'MAIL_WEB_PORT', 'PAYMENTS_FAKE_PORT']) {
     if (!(await portFree(Number(env[key])))) fail(`port ${env[key]} (${key}) is already in use by another program; set ${key} in .env to a free port.`);
   }
@@ -81,6 +82,7 @@ async function main() {
     STRIPE_SECRET_KEY: 'sk_test_crestline_local',
     STRIPE_API_BASE: paymentsUrl,
     STRIPE_WEBHOOK_SECRET: env.STRIPE_WEBHOOK_SECRET,
+    DICOM_AE_TITLE: env.DICOM_AE_TITLE,
   };
   dbTask(root, appEnv, 'migrate');
   dbTask(root, appEnv, 'reference');
@@ -94,6 +96,7 @@ async function main() {
   await startPaymentsFake(root, { port: Number(env.PAYMENTS_FAKE_PORT), webhookUrl: `http://${env.HOST}:${port}/api/payments/webhook`, webhookSecret: env.STRIPE_WEBHOOK_SECRET, logFile: logTo('payments.log') });
   const web = await startWebServer(root, appEnv, { host: env.HOST, port, logFile: openSync(appLog, 'a'), logPath: appLog });
   startWorker(root, appEnv, { logFile: logTo('worker.log') });
+  await startDicomListener(root, appEnv, { host: env.DICOM_HOST, port: Number(env.DICOM_PORT), logFile: logTo('dicom.log') });
   web.child.once('exit', (code) => {
     if (shuttingDown) return;
     say(`the web server stopped unexpectedly (exit ${code}); see ${appLog}. Shutting down.`);
@@ -107,7 +110,8 @@ async function main() {
   for (const u of DEMO_USERS) say(`  ${u.role.padEnd(12)} ${u.email}`);
   say(`mail sent by Crestline lands in the inbox at ${bold(mail.url)}`);
   say(`card payments go to the local payments stand-in at ${paymentsUrl} (test cards only)`);
-  say(`logs: ${path.join(dataDir, 'log')}/ (app, worker, maildev, payments) and ${db.log}`);
+  say(`scanners reach the DICOM listener at ${env.DICOM_HOST}:${env.DICOM_PORT}, AE title ${env.DICOM_AE_TITLE}; demo scanner FHUS01 (Room 1) lists its day with: findscu -W -aet FHUS01 -aec ${env.DICOM_AE_TITLE} -k "(0040,0100)[0].ScheduledStationAETitle=FHUS01" -k PatientName -k AccessionNumber ${env.DICOM_HOST === '0.0.0.0' ? '127.0.0.1' : env.DICOM_HOST} ${env.DICOM_PORT}`);
+  say(`logs: ${path.join(dataDir, 'log')}/ (app, worker, dicom, maildev, payments) and ${db.log}`);
   say('press Ctrl-C to stop everything this started.');
 }
 

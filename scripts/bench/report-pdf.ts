@@ -37,6 +37,7 @@ function echoReportInput(): ReportPdfInput {
     templateVersion: template.version,
     referenceSetVersion: REFERENCE_SET_VERSION,
     measurements: input.measurements as Record<string, number | string>,
+    measurementSources: {},
     nodules: [],
     heightCm: input.patient.heightCm ?? null,
     weightKg: input.patient.weightKg ?? null,

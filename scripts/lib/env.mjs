@@ -36,6 +36,13 @@ MAIL_SMTP_PORT=1025
 MAIL_WEB_PORT=1080
 PAYMENTS_FAKE_PORT=12111
 STRIPE_WEBHOOK_SECRET=whsec_${secret(24)}
+
+# The DICOM listener the scanners talk to: worklist, procedure steps, images. Scanners call
+# Crestline by this AE title; only scanners whose AE titles are in the catalog are let in.
+# Set DICOM_HOST=0.0.0.0 (or the clinic network's address) for real scanners on the network.
+DICOM_HOST=127.0.0.1
+DICOM_PORT=11112
+DICOM_AE_TITLE=CRESTLINE
 `;
 }
 
@@ -47,6 +54,9 @@ const LATER_DEFAULTS = {
   MAIL_WEB_PORT: '1080',
   PAYMENTS_FAKE_PORT: '12111',
   STRIPE_WEBHOOK_SECRET: `whsec_${secret(24)}`,
+  DICOM_HOST: '127.0.0.1',
+  DICOM_PORT: '11112',
+  DICOM_AE_TITLE: 'CRESTLINE',
 };
 
 /** Creates .env with fresh secrets when it does not exist. */
@@ -64,9 +74,12 @@ export function readEnvFile(file) {
   if (missing.length) {
     fail(`${file} has no value for ${missing.join(', ')}. Add ${missing.length > 1 ? 'them' : 'it'} (see README, Configuration), or delete ${file} to have it written afresh.`);
   }
-  for (const k of ['PORT', 'DB_PORT', 'MAIL_SMTP_PORT', 'MAIL_WEB_PORT', 'PAYMENTS_FAKE_PORT']) {
+  for (const k of ['PORT', 'DB_PORT', 'MAIL_SMTP_PORT', 'MAIL_WEB_PORT', 'PAYMENTS_FAKE_PORT', 'DICOM_PORT']) {
     const n = Number(values[k]);
     if (!Number.isInteger(n) || n < 1024 || n > 65535) fail(`${file}: ${k} must be a port number between 1024 and 65535 (it is "${values[k]}").`);
+  }
+  if (!/^[\x20-\x5b\x5d-\x7e]{1,16}$/.test(values.DICOM_AE_TITLE) || !values.DICOM_AE_TITLE.trim()) {
+    fail(`${file}: DICOM_AE_TITLE must be 1–16 printable ASCII characters without a backslash (it is "${values.DICOM_AE_TITLE}").`);
   }
   if (String(values.AUTH_SECRET).length < 32) fail(`${file}: AUTH_SECRET must be at least 32 characters.`);
   if (!/^[A-Za-z0-9_]+$/.test(values.DB_NAME) || !/^[A-Za-z0-9_]+$/.test(values.DB_USER)) {

@@ -36,3 +36,22 @@ export async function waitForHttp(url, { timeoutMs = 30_000, alive = () => true 
   }
   return 'timeout';
 }
+
+/** Polls until something accepts TCP connections on host:port, the process dies, or the time runs out. */
+export async function waitForTcp(host, port, { timeoutMs = 30_000, alive = () => true } = {}) {
+  const until = Date.now() + timeoutMs;
+  while (Date.now() < until) {
+    if (!alive()) return 'died';
+    const up = await new Promise((resolve) => {
+      const socket = net.connect({ host, port });
+      socket.once('connect', () => {
+        socket.destroy();
+        resolve(true);
+      });
+      socket.once('error', () => resolve(false));
+    });
+    if (up) return 'up';
+    await new Promise((r) => setTimeout(r, 200));
+  }
+  return 'timeout';
+}

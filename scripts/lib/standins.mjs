@@ -3,7 +3,7 @@ import { mkdirSync } from 'node:fs';
 import path from 'node:path';
 import { stopChild, track } from './children.mjs';
 import { fail } from './say.mjs';
-import { waitForHttp } from './net.mjs';
+import { waitForHttp, waitForTcp } from './net.mjs';
 
 function spawnTracked(root, command, args, { env = {}, logFile, graceMs } = {}) {
   const child = spawn(command, args, { cwd: root, env: { ...process.env, ...env }, stdio: ['ignore', logFile ?? 'ignore', logFile ?? 'ignore'] });
@@ -48,4 +48,11 @@ export async function startPaymentsFake(root, { port, webhookUrl, webhookSecret,
 /** The background worker (outbox, reminders, payment confirmations). */
 export function startWorker(root, env, { logFile }) {
   return spawnTracked(root, process.execPath, ['--import', 'tsx', 'scripts/worker.ts'], { env, logFile, graceMs: 15_000 });
+}
+
+/** The DICOM listener the scanners talk to (worklist, procedure steps, images). */
+export async function startDicomListener(root, env, { host, port, logFile }) {
+  const p = spawnTracked(root, process.execPath, ['--import', 'tsx', 'scripts/dicom-listener.ts'], { env: { ...env, DICOM_HOST: host, DICOM_PORT: String(port) }, logFile });
+  if ((await waitForTcp(host, port, { timeoutMs: 30_000, alive: p.alive })) !== 'up') fail(`the DICOM listener did not start on ${host}:${port}; see its log.`);
+  return p;
 }

@@ -5,7 +5,9 @@ import { fail, say } from './say.mjs';
 
 /** Debian packages the stack needs; later features add theirs here. */
 export const DEBIAN_PACKAGES = ['mariadb-server', 'mariadb-client'];
-/** Extra packages only the tests need. */
+/** dcmtk's command-line tools act as the scanner in the integration tests (findscu, storescu, …). */
+export const INTEGRATION_DEBIAN_PACKAGES = ['dcmtk'];
+/** The browser for the browser tests. */
 export const TEST_DEBIAN_PACKAGES = ['chromium'];
 
 function installed(pkg) {

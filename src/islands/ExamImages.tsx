@@ -2,6 +2,7 @@ import { QueryClientProvider, useQuery, useQueryClient } from '@tanstack/react-q
 import { useCallback, useMemo, useRef, useState } from 'react';
 import { attachmentsQuery } from '../lib/queries/attachments';
 import { queryClient } from '../lib/query-client';
+import type { LengthField } from '../lib/report-form/length-fields';
 import type { AttachmentDto } from '../lib/schemas/attachments';
 import { ImageViewer } from './images/ImageViewer';
 import { ThumbnailGrid } from './images/ThumbnailGrid';
@@ -11,10 +12,12 @@ interface Props {
   examId: number;
   /** Shows the upload control; the server still checks the role and the exam's status. */
   canUpload: boolean;
+  /** Report fields a length measured on an image may be put into; only where the report form is open. */
+  lengthFields?: LengthField[];
 }
 
 /** The images of one exam: thumbnails, a viewer, and (for sonographers and the manager) uploads. */
-function Images({ examId, canUpload }: Props) {
+function Images({ examId, canUpload, lengthFields }: Props) {
   const client = useQueryClient();
   const query = useMemo(() => attachmentsQuery(examId), [examId]);
   const { data, isPending, isError, error } = useQuery(query);
@@ -43,6 +46,7 @@ function Images({ examId, canUpload }: Props) {
         <ImageViewer
           key={open.id}
           attachment={open}
+          lengthFields={lengthFields}
           onClose={() => {
             setOpen(null);
             opener.current?.focus();

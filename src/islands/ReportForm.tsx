@@ -1,8 +1,10 @@
 import { useEffect, useMemo, useReducer, useRef, useState } from 'react';
-import { CAUTIONS, getTemplate, missingRequired, PROBE_KINDS, type DerivedValue, type Flag, type NoduleAssessment } from '../lib/clinical';
+import { CAUTIONS, formatQuantity, getTemplate, missingRequired, PROBE_KINDS, type DerivedValue, type Flag, type NoduleAssessment, type NumberField } from '../lib/clinical';
 import { differences } from '../lib/report-form/conflict';
 import { draftBody, evaluateLive, measurementKey, toFormErrorKeys } from '../lib/report-form/entries';
-import { formFromStored } from '../lib/report-form/form-state';
+import { answerValue, listen, PUT_VALUE_EVENT, type PutValueDetail } from '../lib/report-form/external-values';
+import { formFromStored, numberText } from '../lib/report-form/form-state';
+import type { MeasurementSource } from '../lib/schemas/reports';
 import { PATIENT_SECTION } from '../lib/report-form/placement';
 import { formReducer } from '../lib/report-form/reducer';
 import { fieldNames, waivedFields } from '../lib/report-form/template-info';
@@ -15,6 +17,7 @@ import { enterMovesOn } from './report/keyboard';
 import { NodulesEditor } from './report/NodulesEditor';
 import { PatientFactors } from './report/PatientFactors';
 import { SaveStatusLine, saveStatusText } from './report/SaveStatusLine';
+import { ScannerValues } from './report/ScannerValues';
 import { SectionCard, sectionSignature } from './report/SectionCard';
 import { SubmittedNotice } from './report/SubmittedNotice';
 import { useAutosave, type DraftSnapshot } from './report/useAutosave';
@@ -48,7 +51,7 @@ export default function ReportForm({ report, context, placement, timeZone, mode 
   formRef.current = form;
   const cleanRef = useRef(form);
   const { status, saver } = useAutosave(report.id, report.version, (): DraftSnapshot => ({
-    body: draftBody(liveRef.current.entries, formRef.current.probeId),
+    body: draftBody(liveRef.current.entries, formRef.current.probeId, formRef.current.sources),
     noduleKeys: liveRef.current.entries.noduleKeys,
   }));
   useEffect(() => {
@@ -91,6 +94,27 @@ export default function ReportForm({ report, context, placement, timeZone, mode 
       noduleFocus: (key, focus, on) => dispatch({ type: 'nodule-focus', key, focus, on }),
     };
   }, [template]);
+
+  // Values from outside the form: the scanner's structured report, and lengths measured with the
+  // calipers in the image viewer (another island, which asks through a window event).
+  const numberFields = useMemo(() => new Map(template.sections.flatMap((s) => s.fields.filter((f): f is NumberField => f.kind === 'number').map((f) => [f.code, f] as const))), [template]);
+  const putExternal = useMemo(
+    () => (code: string, value: number, source: MeasurementSource): string | null => {
+      const field = numberFields.get(code);
+      if (!field) return null;
+      dispatch({ type: 'external', code, value: numberText(value, field.decimals), source });
+      return `${field.label} set to ${formatQuantity(value, field.unit, field.decimals)}.`;
+    },
+    [numberFields],
+  );
+  useEffect(
+    () =>
+      listen<PutValueDetail>(PUT_VALUE_EVENT, ({ code, value, source }) => {
+        const done = putExternal(code, value, source);
+        answerValue({ code, ok: done !== null, message: done ?? 'That field is not on this form; nothing was put in.' });
+      }),
+    [putExternal],
+  );
 
   const flags = useMemo(() => new Map<string, Flag>((live.result?.flags ?? []).map((f) => [f.valueCode, f])), [live]);
   const derivedBySection = useMemo(() => {
@@ -165,7 +189,7 @@ export default function ReportForm({ report, context, placement, timeZone, mode 
           actions={actions}
         />
         {template.sections.map((section) => {
-          const props = { section, values: form.values, marks: form.marks, errors, flags, derived: derivedBySection.get(section.id) ?? [], required, waived, actions };
+          const props = { section, values: form.values, marks: form.marks, sources: form.sources, errors, flags, derived: derivedBySection.get(section.id) ?? [], required, waived, actions };
           return <SectionCard key={section.id} {...props} signature={sectionSignature(props)} />;
         })}
         {template.nodules && <NodulesEditor spec={template.nodules} nodules={form.nodules} assessments={assessments} errors={errors} actions={actions} />}
@@ -199,6 +223,7 @@ export default function ReportForm({ report, context, placement, timeZone, mode 
             </>
           )}
         </section>
+        {mode === 'record' && <ScannerValues reportId={report.id} typed={form.values} onUse={(v) => putExternal(v.fieldCode, v.value, 'scanner')} />}
         {live.result && <Assessments result={live.result} />}
         <FindingsPreview findings={live.result?.findings ?? []} />
         <p className="text-xs leading-relaxed text-ink-500" data-testid="caution">{CAUTIONS}</p>

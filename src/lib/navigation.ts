@@ -14,6 +14,7 @@ export const NAV_ITEMS: readonly NavItem[] = [
   { href: '/', label: 'Today', roles: ['admin', 'frontdesk', 'sonographer', 'radiologist', 'referrer'] },
   { href: '/worklist', label: 'Worklist', roles: ['admin', 'frontdesk', 'sonographer', 'radiologist'] },
   { href: '/schedule', label: 'Schedule', roles: ['admin', 'frontdesk', 'sonographer', 'radiologist'] },
+  { href: '/holding', label: 'Unmatched images', roles: ['admin', 'frontdesk', 'sonographer'] },
   { href: '/reading', label: 'Reading queue', roles: ['admin', 'radiologist'] },
   { href: '/patients', label: 'Patients', roles: ['admin', 'frontdesk', 'sonographer', 'radiologist'] },
   { href: '/referrers', label: 'Referring clinicians', roles: ['admin', 'frontdesk'] },

@@ -31,6 +31,15 @@ const schema = z.object({
   PUBLIC_URL: z.url().optional(),
   HOST: z.string().default('127.0.0.1'),
   PORT: z.coerce.number().int().min(1).max(65535).default(4321),
+  // The DICOM listener the scanners talk to (worklist, procedure steps, images).
+  DICOM_HOST: z.string().default('127.0.0.1'),
+  DICOM_PORT: z.coerce.number().int().min(1).max(65535).default(11112),
+  /** Crestline's own AE title, which scanners call: 1–16 characters, no backslash or control characters. */
+  DICOM_AE_TITLE: z
+    .string()
+    .regex(/^[\x20-\x5b\x5d-\x7e]{1,16}$/, 'must be 1–16 printable ASCII characters without a backslash')
+    .refine((v) => v.trim() !== '', 'must not be blank')
+    .default('CRESTLINE'),
 });
 
 /** The base of links in e-mails (no trailing slash). */

@@ -35,6 +35,10 @@ export interface DicomSpec {
   photometric?: 'MONOCHROME2' | 'RGB';
   /** A JPEG stream to encapsulate instead of uncompressed pixels (JPEG Baseline). */
   jpegFrame?: Uint8Array;
+  /** Default Ultrasound Image Storage; e.g. '1.2.840.10008.5.1.4.1.1.3.1' for a multi-frame (cine) object. */
+  sopClassUid?: string;
+  /** Frames of uncompressed pixels (the gradient, repeated); more than 1 writes Number of Frames. */
+  frames?: number;
   /** Extra attributes by dcmjs keyword, e.g. { WindowCenter: 128 }. */
   extra?: Record<string, unknown>;
 }
@@ -49,17 +53,20 @@ export function makeUltrasoundDicom(spec: DicomSpec): Buffer {
   const rgb = spec.photometric === 'RGB';
   const sop = spec.sopInstanceUid ?? newUid();
   const transferSyntax = spec.jpegFrame ? JPEG_BASELINE : EXPLICIT_VR_LITTLE_ENDIAN;
+  const sopClass = spec.sopClassUid ?? US_IMAGE_STORAGE;
+  const frames = spec.frames ?? 1;
   const meta = {
     FileMetaInformationVersion: new Uint8Array([0, 1]).buffer,
-    MediaStorageSOPClassUID: US_IMAGE_STORAGE,
+    MediaStorageSOPClassUID: sopClass,
     MediaStorageSOPInstanceUID: sop,
     TransferSyntaxUID: transferSyntax,
     ImplementationClassUID: '2.25.305828488182831875890203105390285383139',
   };
-  const pixels = spec.jpegFrame ? toArrayBuffer(spec.jpegFrame) : gradient(rows, columns, rgb ? 3 : 1).buffer;
+  const pixels = spec.jpegFrame ? toArrayBuffer(spec.jpegFrame) : repeated(gradient(rows, columns, rgb ? 3 : 1), frames).buffer;
   const dataset: Record<string, unknown> = {
     ...(spec.specificCharacterSet ? { SpecificCharacterSet: spec.specificCharacterSet } : {}),
-    SOPClassUID: US_IMAGE_STORAGE,
+    SOPClassUID: sopClass,
+    ...(frames > 1 ? { NumberOfFrames: frames } : {}),
     SOPInstanceUID: sop,
     StudyInstanceUID: spec.studyInstanceUid ?? newUid(),
     SeriesInstanceUID: newUid(),
@@ -84,6 +91,14 @@ export function makeUltrasoundDicom(spec: DicomSpec): Buffer {
   const dict = new dcmjs.data.DicomDict(dcmjs.data.DicomMetaDictionary.denaturalizeDataset(meta));
   dict.dict = dcmjs.data.DicomMetaDictionary.denaturalizeDataset(dataset);
   return Buffer.from(dict.write());
+}
+
+/** The frame's bytes `times` times over (a cine loop of one still picture). */
+function repeated(frame: Uint8Array, times: number): Uint8Array {
+  if (times <= 1) return frame;
+  const out = new Uint8Array(frame.length * times);
+  for (let i = 0; i < times; i++) out.set(frame, i * frame.length);
+  return out;
 }
 
 function toArrayBuffer(bytes: Uint8Array): ArrayBuffer {

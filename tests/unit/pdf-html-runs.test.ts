@@ -85,7 +85,7 @@ function signedEcho(html: { findings: string; impression: string }, extras: Part
   const template = getTemplate('echo')!;
   const report: ReportDto = {
     id: 1, examId: 1, status: 'final', version: 4, templateId: 'echo', templateVersion: template.version, referenceSetVersion: REFERENCE_SET_VERSION,
-    measurements: input.measurements as Record<string, number | string>, nodules: [], heightCm: 170, weightKg: 70, probeId: null, probeKind: 'phased-array',
+    measurements: input.measurements as Record<string, number | string>, measurementSources: {}, nodules: [], heightCm: 170, weightKg: 70, probeId: null, probeKind: 'phased-array',
     evaluation: { derived: e.derived, flags: e.flags, findings: e.findings, assessments: e.assessments, urgentPrompts: e.urgentPrompts, algorithms: e.algorithms, patient: e.patient, options: e.options, cautions: e.cautions },
     findingsText: e.findings.join('\n'), abnormalCount: 0, updatedAt: '2025-03-01T16:00:00.000Z', updatedBy: 'Dr Ada Quill', submittedAt: '2025-03-01T15:50:00.000Z',
     findingsHtml: html.findings, impressionHtml: html.impression, claimedBy: null, claimedAt: null,

@@ -9,7 +9,7 @@ const echo = getTemplate('echo') as TemplateDef;
 const abdomen = getTemplate('abdomen') as TemplateDef;
 const woman = { sex: 'female', birthDate: '1980-05-20', examDate: '2025-05-20' } as const;
 
-const blank = (): FormState => ({ values: {}, marks: {}, nodules: [], heightCm: '', weightKg: '', probeId: null });
+const blank = (): FormState => ({ values: {}, marks: {}, sources: {}, nodules: [], heightCm: '', weightKg: '', probeId: null });
 const typed = (values: Record<string, string>, extra: Partial<FormState> = {}): FormState => ({ ...blank(), values, ...extra });
 const nodule = (over: Partial<NoduleDraft>): NoduleDraft => ({
   ...emptyNodule([]),
@@ -157,6 +157,8 @@ describe('toFormErrorKeys', () => {
 describe('draftBody', () => {
   it('is the PUT body without the version', () => {
     const live = evaluateLive(typed({ spleenLengthCm: '12' }, { heightCm: '170' }), abdomen, woman);
-    expect(draftBody(live.entries, 7)).toEqual({ measurements: { spleenLengthCm: 12 }, nodules: [], heightCm: 170, weightKg: null, probeId: 7 });
+    expect(draftBody(live.entries, 7)).toEqual({ measurements: { spleenLengthCm: 12 }, measurementSources: {}, nodules: [], heightCm: 170, weightKg: null, probeId: 7 });
+    // Provenance travels only with a value saved as a number.
+    expect(draftBody(live.entries, 7, { spleenLengthCm: 'image', liverLengthCm: 'scanner' }).measurementSources).toEqual({ spleenLengthCm: 'image' });
   });
 });

@@ -10,7 +10,7 @@ import { fieldNames, waivedFields } from '@/lib/report-form/template-info';
 const thyroid = getTemplate('thyroid') as TemplateDef;
 const echo = getTemplate('echo') as TemplateDef;
 const abdomen = getTemplate('abdomen') as TemplateDef;
-const blank = (): FormState => ({ values: {}, marks: {}, nodules: [], heightCm: '', weightKg: '', probeId: null });
+const blank = (): FormState => ({ values: {}, marks: {}, sources: {}, nodules: [], heightCm: '', weightKg: '', probeId: null });
 
 describe('formFromStored', () => {
   it('puts numbers back as text, states as marks, and drops codes the template does not know', () => {

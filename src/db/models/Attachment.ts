@@ -48,6 +48,10 @@ export class Attachment extends Model<InferAttributes<Attachment>, InferCreation
   declare frameCount: number | null;
   declare transferSyntaxUid: string | null;
   declare uploadedBy: ForeignKey<number> | null;
+  /** The calling AE title of the scanner that sent it over the network; null for uploads. */
+  declare receivedFrom: CreationOptional<string | null>;
+  /** Why a network object waits in the holding list (no exam found, or the patient did not match). */
+  declare heldReason: CreationOptional<string | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -78,6 +82,8 @@ export class Attachment extends Model<InferAttributes<Attachment>, InferCreation
         frameCount: { type: DataTypes.INTEGER, allowNull: true },
         transferSyntaxUid: { type: DataTypes.STRING(64), allowNull: true },
         uploadedBy: { type: DataTypes.INTEGER, allowNull: true },
+        receivedFrom: { type: DataTypes.STRING(16), allowNull: true },
+        heldReason: { type: DataTypes.STRING(255), allowNull: true },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

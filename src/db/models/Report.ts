@@ -9,6 +9,7 @@ import {
 } from 'sequelize';
 import { PROBE_KIND_CODES, type ProbeKind } from '../../lib/exam-status';
 import { REPORT_STATUSES, type ReportStatus } from '../../lib/report-status';
+import type { MeasurementSources } from '../../lib/schemas/reports';
 
 /** The structured report of one exam (see migrations/…-create-reports.cjs). */
 export class Report extends Model<InferAttributes<Report>, InferCreationAttributes<Report>> {
@@ -20,6 +21,8 @@ export class Report extends Model<InferAttributes<Report>, InferCreationAttribut
   declare status: CreationOptional<ReportStatus>;
   /** As entered: numbers in each field's unit, choice values, "not-measurable" / "not-done". */
   declare measurements: Record<string, number | string>;
+  /** Where entered values came from, by field code; a field typed by a person has no entry. */
+  declare measurementSources: CreationOptional<MeasurementSources | null>;
   declare nodules: unknown[];
   declare heightCm: number | null;
   declare weightKg: number | null;
@@ -56,6 +59,7 @@ export class Report extends Model<InferAttributes<Report>, InferCreationAttribut
         referenceSetVersion: { type: DataTypes.STRING(80), allowNull: false },
         status: { type: DataTypes.ENUM(...REPORT_STATUSES), allowNull: false, defaultValue: 'draft' },
         measurements: { type: DataTypes.JSON, allowNull: false },
+        measurementSources: { type: DataTypes.JSON, allowNull: true },
         nodules: { type: DataTypes.JSON, allowNull: false },
         heightCm: { type: DataTypes.DOUBLE, allowNull: true },
         weightKg: { type: DataTypes.DOUBLE, allowNull: true },

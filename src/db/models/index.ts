@@ -8,6 +8,7 @@ import { Patient } from './Patient';
 import { Payment } from './Payment';
 import { PaymentEvent } from './PaymentEvent';
 import { Probe } from './Probe';
+import { ProcedureStep } from './ProcedureStep';
 import { ReferenceRangeRow } from './ReferenceRangeRow';
 import { Referrer } from './Referrer';
 import { Report } from './Report';
@@ -16,15 +17,16 @@ import { ReportCommunication } from './ReportCommunication';
 import { ReportLink } from './ReportLink';
 import { Room } from './Room';
 import { Scanner } from './Scanner';
+import { ScannerValue } from './ScannerValue';
 import { Sequence } from './Sequence';
 import { Setting } from './Setting';
 import { User } from './User';
 
-export { Attachment, AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ReferenceRangeRow, Referrer, Report, ReportAddendum, ReportCommunication, ReportLink, Room, Scanner, Sequence, Setting, User };
+export { Attachment, AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ProcedureStep, ReferenceRangeRow, Referrer, Report, ReportAddendum, ReportCommunication, ReportLink, Room, Scanner, ScannerValue, Sequence, Setting, User };
 
 /** Registers every model and association on one Sequelize instance. */
 export function initModels(sequelize: Sequelize): void {
-  for (const model of [Attachment, AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ReferenceRangeRow, Referrer, Report, ReportAddendum, ReportCommunication, ReportLink, Room, Scanner, Sequence, Setting, User]) {
+  for (const model of [Attachment, AuditEvent, Exam, ExamType, OutboxMessage, Patient, Payment, PaymentEvent, Probe, ProcedureStep, ReferenceRangeRow, Referrer, Report, ReportAddendum, ReportCommunication, ReportLink, Room, Scanner, ScannerValue, Sequence, Setting, User]) {
     model.initModel(sequelize);
   }
   User.belongsTo(Referrer, { foreignKey: 'referrerId', as: 'referrer' });
@@ -46,4 +48,6 @@ export function initModels(sequelize: Sequelize): void {
   Attachment.belongsTo(User, { foreignKey: 'uploadedBy', as: 'uploader' });
   Exam.hasOne(Report, { foreignKey: 'examId', as: 'report' });
   Report.belongsTo(Exam, { foreignKey: 'examId', as: 'exam' });
+  Exam.hasMany(ProcedureStep, { foreignKey: 'examId', as: 'procedureSteps' });
+  ScannerValue.belongsTo(Attachment, { foreignKey: 'attachmentId', as: 'attachment' });
 }

@@ -1,5 +1,6 @@
 import { NOT_DONE, NOT_MEASURABLE, unitSymbol, type Flag, type NumberField } from '../../lib/clinical';
 import type { EntryMark } from '../../lib/report-form/form-state';
+import { MEASUREMENT_SOURCE_LABELS, type MeasurementSource } from '../../lib/schemas/reports';
 import { measurementKey } from '../../lib/report-form/entries';
 import { sentence } from '../../lib/report-form/display';
 import { fieldDomId } from './fieldIds';
@@ -16,17 +17,19 @@ interface Props {
   required: boolean;
   /** Why the field is not needed now, e.g. "Lobe: Absent (resected or agenesis)". */
   waived: string | null;
+  /** Set when no person typed the value: it came from the scanner or the calipers. */
+  source?: MeasurementSource | undefined;
   actions: FieldActions;
 }
 
 const MARK_PLACEHOLDER = { [NOT_MEASURABLE]: 'not measurable', [NOT_DONE]: 'not done' } as const;
 
 /** One measurement: label with unit and imaging mode, the value, and its state. */
-export function NumberInput({ field, text, mark, error, flag, required, waived, actions }: Props) {
+export function NumberInput({ field, text, mark, error, flag, required, waived, source, actions }: Props) {
   const key = measurementKey(field.code);
   const id = fieldDomId(key);
   const unit = unitSymbol(field.unit);
-  const describedBy = [`${id}-mode`, error ? `${id}-error` : null, waived ? `${id}-waived` : null].filter(Boolean).join(' ');
+  const describedBy = [`${id}-mode`, source ? `${id}-source` : null, error ? `${id}-error` : null, waived ? `${id}-waived` : null].filter(Boolean).join(' ');
   return (
     <div className="min-w-0">
       <div className="flex items-start justify-between gap-2">
@@ -73,6 +76,11 @@ export function NumberInput({ field, text, mark, error, flag, required, waived, 
         <div className="mt-1">
           <FlagBadge flag={flag} />
         </div>
+      )}
+      {source && mark === undefined && (
+        <p id={`${id}-source`} className="mt-1 text-xs font-medium text-crest-700" data-testid={`source-${field.code}`}>
+          {MEASUREMENT_SOURCE_LABELS[source].replace(/^./, (c) => c.toUpperCase())}; typing over it makes it yours.
+        </p>
       )}
       {waived && <p id={`${id}-waived`} className="mt-1 text-xs text-ink-500">Not needed: {waived}</p>}
       {error && (

@@ -1,6 +1,7 @@
 import { memo } from 'react';
 import type { DerivedValue, Flag, SectionDef } from '../../lib/clinical';
 import type { EntryMark } from '../../lib/report-form/form-state';
+import type { MeasurementSource } from '../../lib/schemas/reports';
 import { measurementKey } from '../../lib/report-form/entries';
 import type { FieldActions } from './actions';
 import { ChoiceInput } from './ChoiceInput';
@@ -11,6 +12,7 @@ export interface SectionProps {
   section: SectionDef;
   values: Readonly<Record<string, string>>;
   marks: Readonly<Record<string, EntryMark>>;
+  sources: Readonly<Record<string, MeasurementSource>>;
   errors: Readonly<Record<string, string>>;
   flags: ReadonlyMap<string, Flag>;
   derived: readonly DerivedValue[];
@@ -28,7 +30,7 @@ const flagSig = (f: Flag | undefined): string => (f === undefined ? '' : `${f.st
 export function sectionSignature(p: SectionProps): string {
   const parts: string[] = [];
   for (const f of p.section.fields) {
-    parts.push(f.code, p.values[f.code] ?? '', p.marks[f.code] ?? '', p.errors[measurementKey(f.code)] ?? '', flagSig(p.flags.get(f.code)), p.waived[f.code] ?? '');
+    parts.push(f.code, p.values[f.code] ?? '', p.marks[f.code] ?? '', p.sources[f.code] ?? '', p.errors[measurementKey(f.code)] ?? '', flagSig(p.flags.get(f.code)), p.waived[f.code] ?? '');
   }
   for (const d of p.derived) parts.push(d.code, d.display, d.method ?? '', flagSig(p.flags.get(d.code)));
   return parts.join('\u0000');
@@ -52,6 +54,7 @@ function SectionBody(p: SectionProps & { signature: string }) {
               flag={p.flags.get(f.code)}
               required={p.required.has(f.code)}
               waived={p.waived[f.code] ?? null}
+              source={p.sources[f.code]}
               actions={p.actions}
             />
           ) : (

@@ -195,6 +195,8 @@ export function evaluateLive(form: FormState, template: TemplateDef, patient: Pi
 }
 
 /** The body of PUT /api/reports/:id/draft without its version. */
-export function draftBody(entries: Entries, probeId: number | null) {
-  return { measurements: entries.measurements, nodules: entries.nodules, heightCm: entries.heightCm, weightKg: entries.weightKg, probeId };
+export function draftBody(entries: Entries, probeId: number | null, sources: FormState['sources'] = {}) {
+  // Provenance goes only with values that are being saved as numbers.
+  const measurementSources = Object.fromEntries(Object.entries(sources).filter(([code]) => typeof entries.measurements[code] === 'number'));
+  return { measurements: entries.measurements, measurementSources, nodules: entries.nodules, heightCm: entries.heightCm, weightKg: entries.weightKg, probeId };
 }

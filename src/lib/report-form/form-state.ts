@@ -2,6 +2,7 @@
 // typed (so "4." or "4,8" survive a re-render), explicit "not measurable"/"not done" marks,
 // and nodules as editable drafts. Turning this into engine input lives in entries.ts.
 import { NOT_DONE, NOT_MEASURABLE, type TemplateDef } from '../clinical';
+import type { MeasurementSource, MeasurementSources } from '../schemas/reports';
 
 export type EntryMark = typeof NOT_MEASURABLE | typeof NOT_DONE;
 
@@ -28,6 +29,8 @@ export interface FormState {
   values: Readonly<Record<string, string>>;
   /** Explicit states of number fields; absent = use the typed value. */
   marks: Readonly<Record<string, EntryMark>>;
+  /** Values no person typed: taken from the scanner or the calipers; typing over one drops it. */
+  sources: Readonly<Record<string, MeasurementSource>>;
   nodules: readonly NoduleDraft[];
   heightCm: string;
   weightKg: string;
@@ -37,6 +40,7 @@ export interface FormState {
 /** The stored entries of a report, as the server sends them. */
 export interface StoredEntries {
   measurements: Readonly<Record<string, number | string>>;
+  measurementSources?: MeasurementSources;
   nodules: ReadonlyArray<Record<string, unknown>>;
   heightCm: number | null;
   weightKg: number | null;
@@ -83,13 +87,18 @@ export function emptyNodule(existing: readonly NoduleDraft[]): NoduleDraft {
 export function formFromStored(stored: StoredEntries, template: TemplateDef): FormState {
   const values: Record<string, string> = {};
   const marks: Record<string, EntryMark> = {};
+  const sources: Record<string, MeasurementSource> = {};
   for (const section of template.sections) {
     for (const field of section.fields) {
       const entry = stored.measurements[field.code];
       if (entry === undefined) continue;
       if (field.kind === 'number') {
         if (entry === NOT_MEASURABLE || entry === NOT_DONE) marks[field.code] = entry;
-        else values[field.code] = numberText(entry, field.decimals);
+        else {
+          values[field.code] = numberText(entry, field.decimals);
+          const source = stored.measurementSources?.[field.code];
+          if (source) sources[field.code] = source;
+        }
       } else if (typeof entry === 'string' && entry !== NOT_DONE && entry !== NOT_MEASURABLE) {
         values[field.code] = entry;
       }
@@ -114,5 +123,5 @@ export function formFromStored(stored: StoredEntries, template: TemplateDef): Fo
       foci: Array.isArray(n.foci) ? n.foci.filter((f): f is string => typeof f === 'string') : [],
     });
   }
-  return { values, marks, nodules, heightCm: numberText(stored.heightCm), weightKg: numberText(stored.weightKg), probeId: stored.probeId };
+  return { values, marks, sources, nodules, heightCm: numberText(stored.heightCm), weightKg: numberText(stored.weightKg), probeId: stored.probeId };
 }

@@ -1,10 +1,13 @@
 // Every change the form can make, as one pure reducer, so the island stays a thin shell and
 // the rules (exclusive "no foci", nodule limit, reorder) are unit-tested.
 import { ECHOGENIC_FOCI } from '../clinical';
+import type { MeasurementSource } from '../schemas/reports';
 import { emptyNodule, nextNoduleId, type EntryMark, type FormState, type NoduleDraft, type NoduleTextField } from './form-state';
 
 export type FormAction =
   | { type: 'value'; code: string; value: string }
+  /** A value no person typed: accepted from the scanner, or measured with the calipers. */
+  | { type: 'external'; code: string; value: string; source: MeasurementSource }
   | { type: 'mark'; code: string; mark: EntryMark | null }
   | { type: 'patient'; field: 'heightCm' | 'weightKg'; value: string }
   | { type: 'probe'; probeId: number | null }
@@ -26,6 +29,14 @@ function toggleFocus(foci: readonly string[], focus: string, on: boolean): strin
   return order.filter((f) => f !== NO_FOCI && (f === focus || foci.includes(f)));
 }
 
+/** The sources without `code`: a person typed over it, or marked it. */
+function withoutSource(sources: FormState['sources'], code: string): FormState['sources'] {
+  if (!(code in sources)) return sources;
+  const next = { ...sources };
+  delete next[code];
+  return next;
+}
+
 function updateNodule(state: FormState, key: string, change: (n: NoduleDraft) => NoduleDraft): FormState {
   return { ...state, nodules: state.nodules.map((n) => (n.key === key ? change(n) : n)) };
 }
@@ -34,13 +45,20 @@ function updateNodule(state: FormState, key: string, change: (n: NoduleDraft) =>
 export function formReducer(state: FormState, action: FormAction): FormState {
   switch (action.type) {
     case 'value':
-      return (state.values[action.code] ?? '') === action.value ? state : { ...state, values: { ...state.values, [action.code]: action.value } };
+      return (state.values[action.code] ?? '') === action.value
+        ? state
+        : { ...state, values: { ...state.values, [action.code]: action.value }, sources: withoutSource(state.sources, action.code) };
+    case 'external': {
+      const marks = { ...state.marks };
+      delete marks[action.code];
+      return { ...state, values: { ...state.values, [action.code]: action.value }, marks, sources: { ...state.sources, [action.code]: action.source } };
+    }
     case 'mark': {
       if ((state.marks[action.code] ?? null) === action.mark) return state;
       const marks = { ...state.marks };
       if (action.mark === null) delete marks[action.code];
       else marks[action.code] = action.mark;
-      return { ...state, marks };
+      return { ...state, marks, sources: withoutSource(state.sources, action.code) };
     }
     case 'patient':
       return state[action.field] === action.value ? state : { ...state, [action.field]: action.value };

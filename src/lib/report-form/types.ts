@@ -2,7 +2,7 @@ import type { PriorExamInput, ProbeKind } from '../clinical';
 import type { ReportContext, ReportDto } from '../schemas/reports';
 
 /** What the form island needs of the report (the stored evaluation stays on the server). */
-export type FormReport = Pick<ReportDto, 'id' | 'version' | 'templateId' | 'measurements' | 'nodules' | 'heightCm' | 'weightKg' | 'probeId' | 'updatedAt' | 'updatedBy'>;
+export type FormReport = Pick<ReportDto, 'id' | 'version' | 'templateId' | 'measurements' | 'measurementSources' | 'nodules' | 'heightCm' | 'weightKg' | 'probeId' | 'updatedAt' | 'updatedBy'>;
 
 /** What the form island needs of the exam: patient factors it may not edit, and the room's probes. */
 export interface FormContext {
@@ -16,7 +16,7 @@ export interface FormContext {
 
 /** Trim the page's report to the island's props. */
 export function formReport(r: ReportDto): FormReport {
-  return { id: r.id, version: r.version, templateId: r.templateId, measurements: r.measurements, nodules: r.nodules, heightCm: r.heightCm, weightKg: r.weightKg, probeId: r.probeId, updatedAt: r.updatedAt, updatedBy: r.updatedBy };
+  return { id: r.id, version: r.version, templateId: r.templateId, measurements: r.measurements, measurementSources: r.measurementSources, nodules: r.nodules, heightCm: r.heightCm, weightKg: r.weightKg, probeId: r.probeId, updatedAt: r.updatedAt, updatedBy: r.updatedBy };
 }
 
 /** Trim the page's context to the island's props (no name or MRN in the island's data). */

@@ -4,10 +4,21 @@ import type { ProbeKind } from '../exam-status';
 import type { ReportStatus } from '../report-status';
 import { measurementsSchema, noduleSchema } from './clinical';
 
+/** Where a value came from when no person typed it: a scanner's structured report, or calipers on an image. */
+export const MEASUREMENT_SOURCES = ['scanner', 'image'] as const;
+export type MeasurementSource = (typeof MEASUREMENT_SOURCES)[number];
+export const MEASUREMENT_SOURCE_LABELS: Record<MeasurementSource, string> = { scanner: 'from the scanner', image: 'measured on the image' };
+export const measurementSourcesSchema = z
+  .record(z.string().min(1).max(60), z.enum(MEASUREMENT_SOURCES))
+  .refine((m) => Object.keys(m).length <= 200, 'Too many entries.');
+export type MeasurementSources = z.infer<typeof measurementSourcesSchema>;
+
 /** An autosave of the sonographer's entries; `version` is the one the form last saw. */
 export const saveDraftSchema = z.object({
   version: z.number().int().min(0),
   measurements: measurementsSchema,
+  /** Provenance of values the form took from the scanner or the calipers; typing over one drops it. */
+  measurementSources: measurementSourcesSchema.default({}),
   nodules: z.array(noduleSchema).max(10, 'At most 10 nodules.'),
   heightCm: z.number().nullable(),
   weightKg: z.number().nullable(),
@@ -110,6 +121,8 @@ export interface ReportDto {
   templateVersion: string;
   referenceSetVersion: string;
   measurements: Record<string, number | string>;
+  /** Where values came from when no person typed them (scanner report, calipers), by field code. */
+  measurementSources: MeasurementSources;
   nodules: z.infer<typeof noduleSchema>[];
   heightCm: number | null;
   weightKg: number | null;

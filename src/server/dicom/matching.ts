@@ -40,10 +40,11 @@ export function matchToExam(file: FileIdentity, exam: ExamIdentity): MatchResult
  * The refusal, naming the file's values and the exam's, e.g. "This file is for patient ID
  * P0000099 and accession A2612010004, but this exam is P0000012 / A2612010007. Nothing was stored."
  */
-export function mismatchMessage(file: FileIdentity, exam: ExamIdentity): string {
+export function mismatchMessage(file: FileIdentity, exam: ExamIdentity, tail = 'Nothing was stored.'): string {
   const patient = file.patientId || '(none)';
+  const end = tail ? ` ${tail}` : '';
   if (file.accessionNumber !== '') {
-    return `This file is for patient ID ${patient} and accession ${file.accessionNumber}, but this exam is ${exam.mrn} / ${exam.accessionNumber}. Nothing was stored.`;
+    return `This file is for patient ID ${patient} and accession ${file.accessionNumber}, but this exam is ${exam.mrn} / ${exam.accessionNumber}.${end}`;
   }
-  return `This file is for patient ID ${patient} with no accession number and Study Instance UID ${file.studyInstanceUid || '(none)'}, but this exam is ${exam.mrn} / ${exam.accessionNumber} (Study Instance UID ${exam.studyInstanceUid}). Nothing was stored.`;
+  return `This file is for patient ID ${patient} with no accession number and Study Instance UID ${file.studyInstanceUid || '(none)'}, but this exam is ${exam.mrn} / ${exam.accessionNumber} (Study Instance UID ${exam.studyInstanceUid}).${end}`;
 }

@@ -7,6 +7,8 @@ export type ErrorCode =
   | 'FORBIDDEN'
   | 'NOT_FOUND'
   | 'CONFLICT'
+  /** A DICOM object's Patient ID or accession is not the chosen exam's; resend with the mismatch confirmed. */
+  | 'IDENTITY_MISMATCH'
   | 'STALE'
   /** The report is signed: only an addendum may follow. */
   | 'SIGNED'

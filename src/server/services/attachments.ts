@@ -29,7 +29,7 @@ import { clinicProfile } from './settings';
 
 const unsupported = (message: string) => new HttpError(415, 'UNSUPPORTED_MEDIA_TYPE', message, { file: message });
 
-function assertImagesAllowed(status: ExamStatus): void {
+export function assertImagesAllowed(status: ExamStatus): void {
   if (!(IMAGE_EXAM_STATUSES as readonly string[]).includes(status)) {
     const when = status === 'booked' ? ' once the patient has arrived' : '';
     throw ruleBroken(`Images can be added to an exam only${when || ' while it is open'}; this one is ${EXAM_STATUS_LABELS[status].toLowerCase()}. Nothing was stored.`);
@@ -41,7 +41,7 @@ function assertImagesAllowed(status: ExamStatus): void {
  * random part so no two rows ever share a file (removing one upload's file after a failure can
  * never remove another's).
  */
-function newKeys(sha256: string): { file: string; thumbnail: string } {
+export function newKeys(sha256: string): { file: string; thumbnail: string } {
   const name = `${sha256}-${randomBytes(6).toString('hex')}`;
   const dir = `${sha256.slice(0, 2)}/${sha256.slice(2, 4)}`;
   return { file: `attachments/${dir}/${name}`, thumbnail: `thumbnails/${dir}/${name}.jpg` };
@@ -172,7 +172,7 @@ export async function uploadAttachment(actor: SessionUser, examId: number, file:
   return { attachment: await toDto(row), duplicate: false };
 }
 
-async function thumbnailFor(type: FileType, bytes: Uint8Array, facts: DicomFacts | null): Promise<Buffer | null> {
+export async function thumbnailFor(type: FileType, bytes: Uint8Array, facts: DicomFacts | null): Promise<Buffer | null> {
   if (facts) return dicomThumbnail(bytes, facts);
   try {
     return await imageThumbnail(bytes);
@@ -181,7 +181,7 @@ async function thumbnailFor(type: FileType, bytes: Uint8Array, facts: DicomFacts
   }
 }
 
-async function storeFiles(keys: { file: string; thumbnail: string }, bytes: Uint8Array, thumbnail: Buffer | null, requestId: string): Promise<void> {
+export async function storeFiles(keys: { file: string; thumbnail: string }, bytes: Uint8Array, thumbnail: Buffer | null, requestId: string): Promise<void> {
   const store = fileStore();
   try {
     await store.put(keys.file, bytes);
@@ -194,7 +194,7 @@ async function storeFiles(keys: { file: string; thumbnail: string }, bytes: Uint
 }
 
 /** Removes the files of an upload that did not complete; a failure here is logged (an orphan file). */
-async function removeFiles(keys: { file: string; thumbnail: string }, requestId: string): Promise<void> {
+export async function removeFiles(keys: { file: string; thumbnail: string }, requestId: string): Promise<void> {
   const store = fileStore();
   const results = await Promise.allSettled([store.delete(keys.file), store.delete(keys.thumbnail)]);
   if (results.some((r) => r.status === 'rejected')) log.error({ requestId, keys }, 'could not remove the files of a failed upload');

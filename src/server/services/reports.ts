@@ -3,7 +3,7 @@ import { db } from '../../db/connection';
 import { Exam, ExamType, Patient, Probe, Referrer, Report, ReportAddendum, ReportCommunication, Room, Scanner, User } from '../../db/models';
 import { evaluate, getTemplate, missingRequired, REFERENCE_SET_VERSION, type EvaluationSuccess, type PriorExamInput, type ReferenceRange, type TemplateId } from '../../lib/clinical';
 import { canMoveExam } from '../../lib/exam-status';
-import { abnormalCount, storedEvaluation, type AddendumDto, type CommunicationDto, type DraftSavedDto, type ReportContext, type ReportDto, type SaveDraftInput, type StoredEvaluation } from '../../lib/schemas/reports';
+import { abnormalCount, storedEvaluation, type AddendumDto, type CommunicationDto, type DraftSavedDto, type MeasurementSources, type ReportContext, type ReportDto, type SaveDraftInput, type StoredEvaluation } from '../../lib/schemas/reports';
 import type { SessionUser } from '../../lib/session-user';
 import { ageOn, formatInstant, zonedDate } from '../../lib/time';
 import { HttpError, notFound, ruleBroken, stale } from '../http/errors';
@@ -25,6 +25,7 @@ function toDto(r: Report, names: ReadonlyMap<number, string> = new Map(), added:
     templateVersion: r.templateVersion,
     referenceSetVersion: r.referenceSetVersion,
     measurements: r.measurements,
+    measurementSources: r.measurementSources ?? {},
     nodules: r.nodules as ReportDto['nodules'],
     heightCm: r.heightCm,
     weightKg: r.weightKg,
@@ -114,38 +115,48 @@ export async function startExam(actor: SessionUser, examId: number, version: num
   return afterChange(
     db().transaction(async (transaction) => {
       const exam = await lockExam(examId, version, transaction);
-      if (!canMoveExam(exam.status, 'in-progress')) throw ruleBroken(`Only an arrived exam can be started; this one is ${exam.status}.`);
-      const type = await ExamType.findByPk(exam.examTypeId, { transaction });
-      const template = getTemplate(type!.templateId as TemplateId);
-      if (!template) throw ruleBroken(`The exam type has no structured template (${type!.templateId}).`);
-      const probe = await Probe.findOne({ where: { scannerId: exam.scannerId, kind: template.defaultProbe }, transaction });
-      await exam.update({ status: 'in-progress', version: exam.version + 1 }, { transaction });
-      const existing = await Report.findOne({ where: { examId }, transaction });
-      const report =
-        existing ??
-        (await Report.create(
-          {
-            examId,
-            templateId: template.id,
-            templateVersion: template.version,
-            referenceSetVersion: REFERENCE_SET_VERSION,
-            measurements: {},
-            nodules: [],
-            heightCm: null,
-            weightKg: null,
-            probeId: probe?.id ?? null,
-            probeKind: probe?.kind ?? template.defaultProbe,
-            evaluation: null,
-            findingsText: null,
-            impressionHtml: null,
-            createdBy: actor.id,
-            updatedBy: actor.id,
-          },
-          { transaction },
-        ));
+      const report = await beginScan(exam, actor.id, transaction);
       await audit({ actorUserId: actor.id, action: 'exam.start', entityType: 'exam', entityId: exam.id, detail: { from: 'arrived', to: 'in-progress', reportId: report.id }, requestId }, transaction);
       return { reportId: report.id, examVersion: exam.version };
     }),
+  );
+}
+
+/**
+ * Moves a locked, arrived exam to in-progress and gives it its draft report (kept if it has
+ * one already), with the template of its exam type and a probe of the scanner's of the
+ * template's default kind. Shared by "Start scan" and a scanner's procedure step.
+ */
+export async function beginScan(exam: Exam, actorUserId: number | null, transaction: Transaction): Promise<Report> {
+  if (!canMoveExam(exam.status, 'in-progress')) throw ruleBroken(`Only an arrived exam can be started; this one is ${exam.status}.`);
+  const type = await ExamType.findByPk(exam.examTypeId, { transaction });
+  const template = getTemplate(type!.templateId as TemplateId);
+  if (!template) throw ruleBroken(`The exam type has no structured template (${type!.templateId}).`);
+  const probe = await Probe.findOne({ where: { scannerId: exam.scannerId, kind: template.defaultProbe }, transaction });
+  await exam.update({ status: 'in-progress', version: exam.version + 1 }, { transaction });
+  const existing = await Report.findOne({ where: { examId: exam.id }, transaction });
+  return (
+    existing ??
+    Report.create(
+      {
+        examId: exam.id,
+        templateId: template.id,
+        templateVersion: template.version,
+        referenceSetVersion: REFERENCE_SET_VERSION,
+        measurements: {},
+        nodules: [],
+        heightCm: null,
+        weightKg: null,
+        probeId: probe?.id ?? null,
+        probeKind: probe?.kind ?? template.defaultProbe,
+        evaluation: null,
+        findingsText: null,
+        impressionHtml: null,
+        createdBy: actorUserId,
+        updatedBy: actorUserId,
+      },
+      { transaction },
+    )
   );
 }
 
@@ -261,13 +272,14 @@ export async function saveDraft(actor: SessionUser, reportId: number, input: Sav
     // What a correction changes is worth the extra read; the sonographer's autosave skips it.
     const before = needs === 'preliminary' ? await Report.findByPk(reportId, { transaction, lock: transaction.LOCK.UPDATE, attributes: ['id', 'measurements', 'nodules', 'heightCm', 'weightKg'] }) : null;
     const [, changed] = await db().query(
-      `UPDATE reports SET measurements = ?, nodules = ?, height_cm = ?, weight_kg = ?, probe_id = ?, probe_kind = ?, evaluation = ?,
+      `UPDATE reports SET measurements = ?, measurement_sources = ?, nodules = ?, height_cm = ?, weight_kg = ?, probe_id = ?, probe_kind = ?, evaluation = ?,
               findings_text = ?, abnormal_count = ?, template_version = ?, reference_set_version = ?, updated_by = ?,
               version = version + 1, updated_at = ?
         WHERE id = ? AND version = ? AND status = ?`,
       {
         replacements: [
           JSON.stringify(input.measurements),
+          JSON.stringify(keptSources(input)),
           JSON.stringify(input.nodules),
           input.heightCm,
           input.weightKg,
@@ -297,6 +309,11 @@ export async function saveDraft(actor: SessionUser, reportId: number, input: Sav
     return true;
   });
   return applied ? saved : staleSave(reportId, needs);
+}
+
+/** Provenance only for values that are there and are numbers (a typed-over or cleared field has none). */
+function keptSources(input: SaveDraftInput): MeasurementSources {
+  return Object.fromEntries(Object.entries(input.measurementSources ?? {}).filter(([code]) => typeof input.measurements[code] === 'number'));
 }
 
 /** Which entries a correction changed, by field code (values are not logged: they are patient data). */
