@@ -10,7 +10,7 @@ interface Dcmjs {
   };
   log: { setLevel(level: string): void };
 }
-const dcmjs = createRequire(import.meta.url)('dcmjs') as Dcmjs;
+export const dcmjs = createRequire(import.meta.url)('dcmjs') as Dcmjs;
 dcmjs.log.setLevel('error');
 
 export const US_IMAGE_STORAGE = '1.2.840.10008.5.1.4.1.1.6.1';

@@ -1,16 +1,4 @@
-import { createRequire } from 'node:module';
-import { EXPLICIT_VR_LITTLE_ENDIAN, newUid } from './dicom';
-
-/** The part of dcmjs the tests use to write DICOM files (dcmjs ships no types). */
-interface Dcmjs {
-  data: {
-    DicomDict: new (meta: unknown) => { dict: unknown; write(): ArrayBuffer };
-    DicomMetaDictionary: { denaturalizeDataset(dataset: Record<string, unknown>): unknown };
-  };
-  log: { setLevel(level: string): void };
-}
-const dcmjs = createRequire(import.meta.url)('dcmjs') as Dcmjs;
-dcmjs.log.setLevel('error');
+import { dcmjs, EXPLICIT_VR_LITTLE_ENDIAN, newUid } from './dicom';
 
 export const COMPREHENSIVE_SR = '1.2.840.10008.5.1.4.1.1.88.33';
 

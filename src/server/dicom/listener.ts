@@ -7,6 +7,7 @@ import { Scanner } from '../../db/models';
 import { log } from '../log';
 import { clinicProfile } from '../services/settings';
 import { trimDicom, parseDicomDateTime, toInstant } from './identifiers';
+import { encodeCommand, encodeDataset, type EncodableDataset } from './encode';
 import { toPart10 } from './part10';
 import { stepChanged, stepStarted, type StepAnswer } from './procedure-steps';
 import { receiveObject, type ReceiveOutcome } from './receive';
@@ -84,6 +85,24 @@ class RawCollector extends Writable {
 
 type RawDataset = InstanceType<typeof Dataset> & { raw?: RawCollector; transferSyntax?: string };
 
+/** An answer data set written once by our own encoder; dcmjs-dimse sends its bytes as they are. */
+class EncodedDataset extends Dataset {
+  private readonly bytes: Buffer;
+  constructor(
+    private readonly elements: EncodableDataset,
+    transferSyntaxUid: string,
+  ) {
+    super({}, transferSyntaxUid);
+    this.bytes = encodeDataset(elements, transferSyntaxUid);
+  }
+  override getElements(): Record<string, unknown> {
+    return this.elements;
+  }
+  override getDenaturalizedDataset(): Buffer {
+    return this.bytes;
+  }
+}
+
 const dicomStatus: Record<StepAnswer extends infer A ? (A extends { ok: false; refusal: infer R } ? R & string : never) : never, number> = {
   invalid: Status.InvalidAttributeValue,
   duplicate: Status.DuplicateSOPInstance,
@@ -97,6 +116,8 @@ class CrestlineScp extends Scp {
   private readonly id = `dicom-${randomBytes(4).toString('hex')}`;
   private caller = '';
   private readonly counts: Record<string, number> = {};
+  /** The transfer syntax accepted for each SOP class, so answers are written in it directly (no transcoding). */
+  private readonly syntaxOf = new Map<string, string>();
 
   private count(what: string): void {
     this.counts[what] = (this.counts[what] ?? 0) + 1;
@@ -104,6 +125,9 @@ class CrestlineScp extends Scp {
 
   override associationRequested(association: Association): void {
     this.association = association;
+    // A worklist answer is hundreds of small PDUs: without this, Nagle's algorithm holds each
+    // one back for the previous one's acknowledgement.
+    (this as unknown as { socket?: { setNoDelay?: (on: boolean) => void } }).socket?.setNoDelay?.(true);
     void this.decide(association).catch((error: unknown) => {
       log.error({ association: this.id, err: { name: (error as Error)?.name, message: (error as Error)?.message } }, 'DICOM association check failed');
       this.sendAssociationReject(RejectResult.Transient, RejectSource.ServiceProviderPresentation, RejectReason.TemporaryCongestion);
@@ -130,8 +154,10 @@ class CrestlineScp extends Scp {
       const offered = context.getTransferSyntaxUids();
       if (abstract === SOP.verification || abstract === SOP.worklistFind || abstract === SOP.performedStep) {
         const syntax = PLAIN_SYNTAXES.find((s) => offered.includes(s));
-        if (syntax) context.setResult(PresentationContextResult.Accept, syntax);
-        else context.setResult(PresentationContextResult.RejectTransferSyntaxesNotSupported);
+        if (syntax) {
+          context.setResult(PresentationContextResult.Accept, syntax);
+          this.syntaxOf.set(abstract, syntax);
+        } else context.setResult(PresentationContextResult.RejectTransferSyntaxesNotSupported);
       } else if (STORAGE.has(abstract) && offered.length) {
         // Objects are kept as sent: the scanner's first choice of transfer syntax is taken.
         context.setResult(PresentationContextResult.Accept, offered[0]);
@@ -161,9 +187,19 @@ class CrestlineScp extends Scp {
   }
 
   override cFindRequest(request: CFindRequest, callback: (responses: Array<InstanceType<typeof CFindResponse>>) => void): void {
-    void this.findWorklist(request).then(callback, (error: unknown) => {
+    // dcmjs-dimse writes two PDUs per answer; corked, the day's answers leave in a few large writes.
+    const socket = (this as unknown as { socket?: { cork(): void; uncork(): void } }).socket;
+    const send = (responses: Array<InstanceType<typeof CFindResponse>>) => {
+      socket?.cork();
+      try {
+        callback(responses);
+      } finally {
+        socket?.uncork();
+      }
+    };
+    void this.findWorklist(request).then(send, (error: unknown) => {
       log.error({ association: this.id, err: { name: (error as Error)?.name, message: (error as Error)?.message } }, 'worklist query failed');
-      callback([this.findFailure(request, Status.ProcessingFailure, 'The worklist is not available right now; try again.')]);
+      send([this.findFailure(request, Status.ProcessingFailure, 'The worklist is not available right now; try again.')]);
     });
   }
 
@@ -175,22 +211,27 @@ class CrestlineScp extends Scp {
   }
 
   private async findWorklist(request: CFindRequest): Promise<Array<InstanceType<typeof CFindResponse>>> {
+    const started = performance.now();
     if (request.getAffectedSopClassUid() !== SOP.worklistFind) return [this.findFailure(request, Status.SopClassNotSupported, 'Only the modality worklist can be queried here.')];
     const keys = request.getDataset()?.getElements() ?? {};
     const query = readQuery(keys);
     if ('invalid' in query) return [this.findFailure(request, 0xa900, query.invalid)];
     const { timeZone } = await clinicProfile();
     const rows = await worklistRows(query, timeZone);
+    const syntax = this.syntaxOf.get(SOP.worklistFind) ?? TransferSyntax.ImplicitVRLittleEndian;
     this.count('worklist-query');
     const answers = rows.map((row) => {
       const response = CFindResponse.fromRequest(request);
-      response.setDataset(new Dataset(requestedOnly(worklistItem(row, timeZone, options.aeTitle), keys)));
+      response.setDataset(new EncodedDataset(requestedOnly(worklistItem(row, timeZone, options.aeTitle), keys) as EncodableDataset, syntax));
       response.setStatus(Status.Pending);
+      // The command set too is written by our encoder, when dcmjs-dimse sends it (see encode.ts).
+      const command = response.getCommandDataset();
+      command.getDenaturalizedCommandDataset = () => encodeCommand(command.getElements() as EncodableDataset);
       return response;
     });
     const done = CFindResponse.fromRequest(request);
     done.setStatus(Status.Success);
-    log.info({ association: this.id, caller: this.caller, answers: rows.length }, 'worklist query answered');
+    log.info({ association: this.id, caller: this.caller, answers: rows.length, ms: Math.round(performance.now() - started) }, 'worklist query answered');
     return [...answers, done];
   }
 

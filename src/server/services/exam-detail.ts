@@ -33,6 +33,12 @@ export interface ExamDetail {
   history: Array<{ at: string; action: string; actor: string | null }>;
 }
 
+/** A scanner's own steps (procedure steps, received images) name it as the actor, e.g. "scanner FHUS01". */
+function scannerOf(detail: unknown): string | null {
+  const ae = (detail as { scannerAe?: unknown } | null)?.scannerAe;
+  return typeof ae === 'string' ? `scanner ${ae}` : null;
+}
+
 /** Everything the exam page shows, for staff. */
 export async function examDetail(id: number, timeZone: string): Promise<ExamDetail> {
   const e = (await Exam.findByPk(id, {
@@ -95,6 +101,6 @@ export async function examDetail(id: number, timeZone: string): Promise<ExamDeta
     referrer: e.referrer ? { id: e.referrer.id, name: e.referrer.name, practice: e.referrer.practice } : null,
     ledger,
     messages: messages.map((m) => ({ id: m.id, kind: m.kind, status: m.status, to: m.toAddress, at: m.createdAt.toISOString(), sentAt: m.sentAt?.toISOString() ?? null, attempts: m.attempts })),
-    history: events.map((x) => ({ at: x.at.toISOString(), action: x.action, actor: x.actorUserId != null ? (actors.get(x.actorUserId) ?? null) : null })),
+    history: events.map((x) => ({ at: x.at.toISOString(), action: x.action, actor: x.actorUserId != null ? (actors.get(x.actorUserId) ?? null) : scannerOf(x.detail) })),
   };
 }
