@@ -1,4 +1,5 @@
 import { createHash, randomUUID } from 'node:crypto';
+import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { QueryTypes } from 'sequelize';
 import { Attachment, AuditEvent, Exam, Patient, ProcedureStep, Report, Scanner, ScannerValue } from '../../src/db/models';
@@ -273,6 +274,20 @@ describe('images and structured reports (C-STORE)', () => {
     const row = (await Attachment.findOne({ where: { sopInstanceUid: sop } }))!;
     expect(row).toMatchObject({ examId: exam.id, frameCount: frames, transferSyntaxUid: '1.2.840.10008.1.2.1' });
     expect(dataSetOf(await fileStore().get(row.storageKey)).equals(dataSetOf(sent))).toBe(true);
+  });
+
+  it('keeps a JPEG-compressed image compressed, as the scanner offered it (storescu -xy proposes JPEG Baseline)', async () => {
+    const exam = await bookOn(await newPatient(`Jpegford${RUN}`, 'Ivo'), day, 12, { arrive: true });
+    const sop = newUid();
+    const jpeg = await sharp({ create: { width: 64, height: 48, channels: 3, background: '#5a8f7b' } }).jpeg().toBuffer();
+    const sent = makeUltrasoundDicom({ patientId: exam.mrn, accessionNumber: exam.accessionNumber, studyInstanceUid: exam.studyInstanceUid, sopInstanceUid: sop, jpegFrame: jpeg, photometric: 'RGB', rows: 48, columns: 64 });
+    const run = await storeFiles(scannerAe[0]!, [sent], ['-xy']);
+    expect(run.code, run.stderr).toBe(0);
+    const row = (await Attachment.findOne({ where: { sopInstanceUid: sop } }))!;
+    // JPEG Baseline (Process 1) is 1.2.840.10008.1.2.4.50 (DICOM PS3.5 A.4.1).
+    expect(row).toMatchObject({ examId: exam.id, transferSyntaxUid: '1.2.840.10008.1.2.4.50' });
+    expect(dataSetOf(await fileStore().get(row.storageKey)).equals(dataSetOf(sent))).toBe(true);
+    expect(row.thumbnailKey).not.toBeNull();
   });
 
   it('holds an object with an unknown accession number or another patient, never filing it on a patient', async () => {
