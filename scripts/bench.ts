@@ -129,6 +129,16 @@ export const sections: BenchSection[] = [
     key: 'pdf',
     run: async () => (await import('./bench/report-pdf.ts')).reportPdfBench(),
   },
+  {
+    name: 'Backup of the bench database (100,000 past exams): npm run backup, then restore it',
+    key: 'backup',
+    run: async () => (await import('./bench/backup.ts')).backupBench(),
+  },
+  {
+    name: 'Clinic dashboard for a year (about 33,000 of the 100,000 bench exams), 20 requests one after the other',
+    key: 'dashboard',
+    run: async () => (await import('./bench/dashboard.ts')).dashboardBench(),
+  },
 ];
 
 const passes = (f: BenchFigure): boolean => (f.atLeast !== undefined ? f.value >= f.atLeast : f.value < f.target);

@@ -64,7 +64,8 @@ export async function dicomBench(): Promise<BenchFigure[]> {
   const scannerAe = e.sql('SELECT ae_title FROM crestline_bench.scanners ORDER BY id LIMIT 1');
   const date = e.sql("SELECT DATE_FORMAT(DATE_ADD(UTC_DATE(), INTERVAL 30 DAY), '%Y%m%d')");
   const port = await freePort();
-  const dataDir = path.join(e.dir, 'files');
+  // The objects stored here are thrown away afterwards (20 MB each; they would pile up run after run).
+  const dataDir = mkdtempSync(path.join(tmpdir(), 'crestline-bench-dicom-'));
   const listener = await startDicomListener(root, { ...e.env, DATA_DIR: dataDir, DICOM_AE_TITLE: AE }, { host: '127.0.0.1', port, logFile: 'ignore' });
   try {
     // Worklist: findscu (dcmtk, the scanner of the tests) for the day of 300 exams and for an empty
@@ -116,5 +117,6 @@ export async function dicomBench(): Promise<BenchFigure[]> {
     ];
   } finally {
     await listener.stop();
+    rmSync(dataDir, { recursive: true, force: true });
   }
 }

@@ -42,7 +42,7 @@ export default function ReportForm({ report, context, placement, timeZone, mode 
   const template = getTemplate(report.templateId)!;
   const [form, dispatch] = useReducer(formReducer, report, (r) => formFromStored(r, template));
   const patient = useMemo(() => ({ sex: context.patient.sex, birthDate: context.patient.birthDate, examDate: context.examDate }), [context]);
-  const live = useMemo(() => evaluateLive(form, template, patient, context.prior ?? null), [form, template, patient, context.prior]);
+  const live = useMemo(() => evaluateLive(form, template, patient, context.prior ?? null, context.disabledUrgentRules), [form, template, patient, context.prior, context.disabledUrgentRules]);
 
   // The saver reads the newest entries when it sends, not those of the render that scheduled it.
   const liveRef = useRef(live);

@@ -142,7 +142,7 @@ describe('modality worklist (C-FIND)', () => {
     expect(await names([`PatientName=Brookfield${RUN}*`, `(0040,0100)[0].ScheduledStationAETitle=${scannerAe[1]}`])).toEqual([other.accessionNumber]);
     expect(await names([`PatientName=Nobody${RUN}*`])).toEqual([]);
     expect(await names([`PatientID=${zoe.mrn}`, `(0040,0100)[0].ScheduledProcedureStepStartDate=${da(day)}`])).toEqual([zoe.accessionNumber]);
-    expect(await names([`AccessionNumber=${zoe.accessionNumber.slice(0, -1)}?`, `PatientID=${zoe.mrn}`])).toEqual([zoe.accessionNumber]);
+    expect(await names([`AccessionNumber=${zoe.accessionNumber.slice(0, -1)}?`, `PatientID=${zoe.mrn}`, `(0040,0100)[0].ScheduledProcedureStepStartDate=${da(day)}`])).toEqual([zoe.accessionNumber]);
     // A % or _ in a query is a literal character, not a LIKE wildcard.
     expect(await names([`PatientName=%${RUN}%`])).toEqual([]);
   });

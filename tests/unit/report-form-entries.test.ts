@@ -118,6 +118,14 @@ describe('evaluateLive', () => {
     expect(derived(live, 'spleenVolumeMl')?.display).toBe('198 mL');
   });
 
+  it('prompts for an AAA at the repair threshold unless the clinic switched that rule off', () => {
+    // 5.6 cm in a woman is past the 5.0 cm threshold of the rule's own description (SVS/ESVS, common practice).
+    const on = evaluateLive(typed({ aortaDiameterCm: '5.6' }), abdomen, woman);
+    expect(on.result!.urgentPrompts.map((p) => p.ruleId)).toContain('aaa-repair-threshold');
+    const off = evaluateLive(typed({ aortaDiameterCm: '5.6' }), abdomen, woman, null, ['aaa-repair-threshold']);
+    expect(off.result!.urgentPrompts.map((p) => p.ruleId)).not.toContain('aaa-repair-threshold');
+  });
+
   it('an implausible height drops BSA-indexed values only', () => {
     const live = evaluateLive(typed({ ivsdCm: '1.0', lviddCm: '5.0', pwdCm: '1.0' }, { heightCm: '1.70', weightKg: '70' }), echo, { sex: 'male', birthDate: '1970-03-01', examDate: '2025-03-01' });
     expect(live.errors['patient.heightCm']).toBeDefined();

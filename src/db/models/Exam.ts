@@ -39,6 +39,10 @@ export class Exam extends Model<InferAttributes<Exam>, InferCreationAttributes<E
   /** Summary of the payment ledger, kept in step by the payments service. */
   declare paymentState: CreationOptional<PaymentState>;
   declare reminderQueuedAt: CreationOptional<Date | null>;
+  /** When the patient was checked in, the scan started and the exam completed (UTC; null until then). */
+  declare arrivedAt: CreationOptional<Date | null>;
+  declare startedAt: CreationOptional<Date | null>;
+  declare completedAt: CreationOptional<Date | null>;
   declare createdBy: number | null;
   declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
@@ -69,6 +73,9 @@ export class Exam extends Model<InferAttributes<Exam>, InferCreationAttributes<E
         depositCents: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         paymentState: { type: DataTypes.ENUM(...PAYMENT_STATES), allowNull: false, defaultValue: 'none' },
         reminderQueuedAt: { type: DataTypes.DATE, allowNull: true },
+        arrivedAt: { type: DataTypes.DATE, allowNull: true },
+        startedAt: { type: DataTypes.DATE, allowNull: true },
+        completedAt: { type: DataTypes.DATE, allowNull: true },
         createdBy: { type: DataTypes.INTEGER, allowNull: true },
         version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,

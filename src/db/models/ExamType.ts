@@ -21,6 +21,8 @@ export class ExamType extends Model<InferAttributes<ExamType>, InferCreationAttr
   declare depositCents: number;
   declare currency: string;
   declare active: CreationOptional<boolean>;
+  /** Optimistic lock: bumped by every catalog edit. */
+  declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -38,6 +40,7 @@ export class ExamType extends Model<InferAttributes<ExamType>, InferCreationAttr
         depositCents: { type: DataTypes.INTEGER, allowNull: false },
         currency: { type: DataTypes.CHAR(3), allowNull: false },
         active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+        version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

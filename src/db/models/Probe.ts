@@ -21,6 +21,8 @@ export class Probe extends Model<InferAttributes<Probe>, InferCreationAttributes
   declare endocavitary: CreationOptional<boolean>;
   declare inServiceFrom: string;
   declare inServiceTo: string | null;
+  /** Optimistic lock: bumped by every catalog edit. */
+  declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -38,6 +40,7 @@ export class Probe extends Model<InferAttributes<Probe>, InferCreationAttributes
         endocavitary: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: false },
         inServiceFrom: { type: DataTypes.DATEONLY, allowNull: false },
         inServiceTo: { type: DataTypes.DATEONLY, allowNull: true },
+        version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

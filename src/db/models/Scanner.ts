@@ -15,6 +15,8 @@ export class Scanner extends Model<InferAttributes<Scanner>, InferCreationAttrib
   /** DICOM application entity title: up to 16 characters, no backslash or control characters. */
   declare aeTitle: string;
   declare active: CreationOptional<boolean>;
+  /** Optimistic lock: bumped by every catalog edit. */
+  declare version: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -26,6 +28,7 @@ export class Scanner extends Model<InferAttributes<Scanner>, InferCreationAttrib
         name: { type: DataTypes.STRING(80), allowNull: false },
         aeTitle: { type: DataTypes.STRING(16), allowNull: false, unique: true },
         active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+        version: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -1,6 +1,6 @@
 // From what was typed to what the clinical engine (and the server) take. The form never
 // computes a clinical value itself: it hands the engine these entries and shows its answer.
-import { evaluate, type EvaluationSuccess, type NoduleInput, type PatientInput, type PriorExamInput, type TemplateDef } from '../clinical';
+import { evaluate, type EvaluationSuccess, type NoduleInput, type PatientInput, type PriorExamInput, type TemplateDef, type UrgentRuleId } from '../clinical';
 import type { FormState, NoduleDraft } from './form-state';
 
 export type Parsed = { kind: 'blank' } | { kind: 'number'; value: number } | { kind: 'invalid' };
@@ -178,11 +178,18 @@ function withoutRefused(entries: Entries, fieldErrors: Readonly<Record<string, s
  *
  * @example evaluateLive(form, getTemplate('thyroid')!, { sex: 'female', birthDate: '1980-05-20', examDate: '2025-05-20' })
  */
-export function evaluateLive(form: FormState, template: TemplateDef, patient: Pick<PatientInput, 'sex' | 'birthDate' | 'examDate'>, prior: PriorExamInput | null = null): LiveEvaluation {
+export function evaluateLive(
+  form: FormState,
+  template: TemplateDef,
+  patient: Pick<PatientInput, 'sex' | 'birthDate' | 'examDate'>,
+  prior: PriorExamInput | null = null,
+  /** Urgent-finding rules the clinic switched off: the form prompts for them no more than the server does. */
+  disabledUrgentRules: readonly UrgentRuleId[] = [],
+): LiveEvaluation {
   const built = buildEntries(form, template);
   const { errors: typing, incompleteNodules, ...entries } = built;
   const run = (e: Entries) =>
-    evaluate({ templateId: template.id, measurements: e.measurements, nodules: e.nodules, patient: { ...patient, heightCm: e.heightCm, weightKg: e.weightKg }, prior });
+    evaluate({ templateId: template.id, measurements: e.measurements, nodules: e.nodules, patient: { ...patient, heightCm: e.heightCm, weightKg: e.weightKg }, prior, options: { disabledUrgentRules } });
   const first = run(entries);
   if (first.ok) return { result: first, errors: typing, entries, incompleteNodules };
   const errors = { ...typing, ...toFormErrorKeys(first.fieldErrors, entries.noduleKeys, form) };

@@ -1,4 +1,4 @@
-import type { PriorExamInput, ProbeKind } from '../clinical';
+import type { PriorExamInput, ProbeKind, UrgentRuleId } from '../clinical';
 import type { ReportContext, ReportDto } from '../schemas/reports';
 
 /** What the form island needs of the report (the stored evaluation stays on the server). */
@@ -12,6 +12,8 @@ export interface FormContext {
   probes: Array<{ id: number; kind: ProbeKind; label: string; frequencyMhz: string }>;
   /** The latest signed prior exam of this template (growth since then), as the server evaluates with it. */
   prior?: PriorExamInput | null;
+  /** Urgent-finding rules the clinic switched off (Clinic settings). */
+  disabledUrgentRules?: UrgentRuleId[];
 }
 
 /** Trim the page's report to the island's props. */
@@ -20,6 +22,6 @@ export function formReport(r: ReportDto): FormReport {
 }
 
 /** Trim the page's context to the island's props (no name or MRN in the island's data). */
-export function formContext(c: ReportContext, prior: PriorExamInput | null = null): FormContext {
-  return { examId: c.examId, patient: { sex: c.patient.sex, birthDate: c.patient.birthDate, ageYears: c.patient.ageYears }, examDate: c.examDate, probes: c.probes, prior: prior !== null && prior.examDate < c.examDate ? prior : null };
+export function formContext(c: ReportContext, prior: PriorExamInput | null = null, disabledUrgentRules: UrgentRuleId[] = []): FormContext {
+  return { examId: c.examId, patient: { sex: c.patient.sex, birthDate: c.patient.birthDate, ageYears: c.patient.ageYears }, examDate: c.examDate, probes: c.probes, prior: prior !== null && prior.examDate < c.examDate ? prior : null, disabledUrgentRules };
 }

@@ -49,7 +49,7 @@ export async function stepStarted(step: StepStart, associationId: string): Promi
     if (!identity.ok) return refuse('invalid', `The step is for patient ID ${step.patientId || '(none)'}; exam ${exam.accessionNumber} is for ${exam.patient.mrn}.`);
     const via = { via: 'scanner', scannerAe: step.scannerAe, step: step.sopInstanceUid };
     if (exam.status === 'booked') {
-      await exam.update({ status: 'arrived', version: exam.version + 1 }, { transaction });
+      await exam.update({ status: 'arrived', arrivedAt: new Date(), version: exam.version + 1 }, { transaction });
       await audit({ actorUserId: null, action: 'exam.check-in', entityType: 'exam', entityId: exam.id, detail: { from: 'booked', to: 'arrived', ...via }, requestId: associationId }, transaction);
     }
     if (exam.status === 'arrived') {

@@ -101,7 +101,7 @@ export interface WorklistRow {
 
 /** The rows a query selects: booked and arrived exams only, in start order. */
 export async function worklistRows(q: WorklistQuery, timeZone: string): Promise<WorklistRow[]> {
-  const where = ["e.status IN ('booked', 'arrived')"];
+  const where = ["e.status IN ('booked', 'arrived')", 's.active = 1'];
   const values: unknown[] = [];
   if (q.modality !== null && !universal(q.modality) && !likeMatches('US', q.modality)) return [];
   const like = (column: string, value: string | null) => {

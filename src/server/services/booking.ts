@@ -145,7 +145,7 @@ export async function moveExamStatus(actor: SessionUser, id: number, to: 'arrive
     const exam = await lockExam(id, version, transaction);
     if (!canMoveExam(exam.status, to)) throw ruleBroken(`An exam that is ${exam.status} cannot be marked ${to === 'arrived' ? 'arrived' : 'as a no-show'}.`);
     const from = exam.status;
-    await exam.update({ status: to, version: exam.version + 1 }, { transaction });
+    await exam.update({ status: to, version: exam.version + 1, ...(to === 'arrived' ? { arrivedAt: new Date() } : {}) }, { transaction });
     if (to === 'noshow') await recomputePaymentState(exam, transaction);
     await audit({ actorUserId: actor.id, action: to === 'arrived' ? 'exam.check-in' : 'exam.noshow', entityType: 'exam', entityId: exam.id, detail: { from, to }, requestId }, transaction);
     return { id: exam.id, status: exam.status, version: exam.version };

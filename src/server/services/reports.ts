@@ -1,7 +1,7 @@
 import { QueryTypes, type Transaction } from 'sequelize';
 import { db } from '../../db/connection';
 import { Exam, ExamType, Patient, Probe, Referrer, Report, ReportAddendum, ReportCommunication, Room, Scanner, User } from '../../db/models';
-import { evaluate, getTemplate, missingRequired, REFERENCE_SET_VERSION, type EvaluationSuccess, type PriorExamInput, type ReferenceRange, type TemplateId } from '../../lib/clinical';
+import { evaluate, getTemplate, missingRequired, REFERENCE_SET_VERSION, type EvaluationSuccess, type PriorExamInput, type ReferenceRange, type TemplateId, type UrgentRuleId } from '../../lib/clinical';
 import { canMoveExam } from '../../lib/exam-status';
 import { abnormalCount, storedEvaluation, type AddendumDto, type CommunicationDto, type DraftSavedDto, type MeasurementSources, type ReportContext, type ReportDto, type SaveDraftInput, type StoredEvaluation } from '../../lib/schemas/reports';
 import type { SessionUser } from '../../lib/session-user';
@@ -11,7 +11,7 @@ import { audit } from './audit';
 import { afterChange, lockExam } from './booking';
 import { LATEST_PRIOR_ID_SQL, priorInput } from './priors';
 import { referenceSet } from './reference-ranges';
-import { clinicProfile } from './settings';
+import { clinicProfile, disabledUrgentRules } from './settings';
 
 function toDto(r: Report, names: ReadonlyMap<number, string> = new Map(), added: { addenda: ReportAddendum[]; communications: ReportCommunication[] } = { addenda: [], communications: [] }): ReportDto {
   const name = (id: number | null | undefined) => (id == null ? null : (names.get(id) ?? null));
@@ -83,7 +83,8 @@ export async function dtoWithEditor(r: Report, transaction?: Transaction): Promi
 /**
  * Runs the engine on a report's entries with the exam's patient factors, the stored reference
  * set and the latest signed prior of the same template (growth since then); values outside
- * plausible bounds are a 400 naming each field.
+ * plausible bounds are a 400 naming each field. Rules the clinic switched off raise no prompt
+ * (the stored evaluation's options record which were off).
  */
 function evaluateEntries(
   facts: { scheduledStart: Date; sex: Patient['sex']; birthDate: string },
@@ -92,6 +93,7 @@ function evaluateEntries(
   timeZone: string,
   referenceRanges: readonly ReferenceRange[],
   prior: PriorExamInput | null,
+  switchedOff: readonly UrgentRuleId[],
 ): EvaluationSuccess {
   const examDate = zonedDate(facts.scheduledStart, timeZone);
   const result = evaluate({
@@ -102,6 +104,7 @@ function evaluateEntries(
     // Growth is judged between exam days: an earlier exam the same day is no prior for it.
     prior: prior !== null && prior.examDate < examDate ? prior : null,
     referenceRanges,
+    options: { disabledUrgentRules: switchedOff },
   });
   if (!result.ok) throw new HttpError(400, 'VALIDATION', 'Some values are outside what is plausible; check the units.', result.fieldErrors);
   return result;
@@ -133,7 +136,7 @@ export async function beginScan(exam: Exam, actorUserId: number | null, transact
   const template = getTemplate(type!.templateId as TemplateId);
   if (!template) throw ruleBroken(`The exam type has no structured template (${type!.templateId}).`);
   const probe = await Probe.findOne({ where: { scannerId: exam.scannerId, kind: template.defaultProbe }, transaction });
-  await exam.update({ status: 'in-progress', version: exam.version + 1 }, { transaction });
+  await exam.update({ status: 'in-progress', startedAt: exam.startedAt ?? new Date(), version: exam.version + 1 }, { transaction });
   const existing = await Report.findOne({ where: { examId: exam.id }, transaction });
   return (
     existing ??
@@ -249,14 +252,14 @@ const staleSave = (reportId: number, needs: Report['status']) => reportRefusal(r
  */
 export async function saveDraft(actor: SessionUser, reportId: number, input: SaveDraftInput, requestId: string): Promise<DraftSavedDto> {
   const needs: Report['status'] = actor.role === 'radiologist' ? 'preliminary' : 'draft';
-  const [{ timeZone }, referenceRanges, head] = await Promise.all([clinicProfile(), referenceSet(REFERENCE_SET_VERSION), draftHead(reportId, input.probeId)]);
+  const [{ timeZone }, referenceRanges, head, switchedOff] = await Promise.all([clinicProfile(), referenceSet(REFERENCE_SET_VERSION), draftHead(reportId, input.probeId), disabledUrgentRules()]);
   if (!head) throw notFound('The report');
   if (head.version !== input.version || head.status !== needs) return staleSave(reportId, needs);
   if (input.probeId !== null && head.chosen_scanner_id !== head.scanner_id) {
     throw new HttpError(400, 'VALIDATION', 'Some values need correcting.', { probeId: 'Choose a probe of this room’s scanner.' });
   }
   const facts = { scheduledStart: new Date(head.scheduled_start), sex: head.sex, birthDate: String(head.birth_date).slice(0, 10) };
-  const result = evaluateEntries(facts, head.template_id, input, timeZone, referenceRanges, await priorInput(head.prior_report_id, timeZone));
+  const result = evaluateEntries(facts, head.template_id, input, timeZone, referenceRanges, await priorInput(head.prior_report_id, timeZone), switchedOff);
   const saved: DraftSavedDto = {
     id: reportId,
     examId: head.exam_id,
@@ -332,7 +335,7 @@ function changedEntries(before: Pick<Report, 'measurements' | 'nodules' | 'heigh
  * the reading queue.
  */
 export async function submitPreliminary(actor: SessionUser, reportId: number, version: number, requestId: string): Promise<ReportDto> {
-  const [{ timeZone }, referenceRanges] = await Promise.all([clinicProfile(), referenceSet(REFERENCE_SET_VERSION)]);
+  const [{ timeZone }, referenceRanges, switchedOff] = await Promise.all([clinicProfile(), referenceSet(REFERENCE_SET_VERSION), disabledUrgentRules()]);
   return afterChange(
     db().transaction(async (transaction) => {
       const report = await lockReport(reportId, version, transaction);
@@ -349,13 +352,13 @@ export async function submitPreliminary(actor: SessionUser, reportId: number, ve
         );
       }
       const facts = await examFactsFor(exam!.id, transaction);
-      const result = evaluateEntries(facts, report.templateId, { ...report.get(), nodules: report.nodules as SaveDraftInput['nodules'] }, timeZone, referenceRanges, await latestPriorInTx(report.id, timeZone, transaction));
+      const result = evaluateEntries(facts, report.templateId, { ...report.get(), nodules: report.nodules as SaveDraftInput['nodules'] }, timeZone, referenceRanges, await latestPriorInTx(report.id, timeZone, transaction), switchedOff);
       const now = new Date();
       await report.update(
         { status: 'preliminary', evaluation: storedEvaluation(result), findingsText: result.findings.join('\n'), abnormalCount: abnormalCount(result), submittedBy: actor.id, submittedAt: now, updatedBy: actor.id, version: report.version + 1 },
         { transaction },
       );
-      await exam!.update({ status: 'completed', version: exam!.version + 1 }, { transaction });
+      await exam!.update({ status: 'completed', completedAt: now, version: exam!.version + 1 }, { transaction });
       await audit({ actorUserId: actor.id, action: 'report.preliminary', entityType: 'report', entityId: report.id, detail: { examId: exam!.id, abnormal: report.abnormalCount }, requestId }, transaction);
       await audit({ actorUserId: actor.id, action: 'exam.complete', entityType: 'exam', entityId: exam!.id, detail: { from: 'in-progress', to: 'completed', reportId: report.id }, requestId }, transaction);
       return dtoWithEditor(report, transaction);
@@ -363,17 +366,29 @@ export async function submitPreliminary(actor: SessionUser, reportId: number, ve
   );
 }
 
-/** A report as stored. */
+/** A report as stored (urgent prompts of switched-off rules hidden until it is signed). */
 export async function getReport(id: number): Promise<ReportDto> {
   const report = await Report.findByPk(id);
   if (!report) throw notFound('The report');
-  return dtoWithEditor(report);
+  return withCurrentUrgentRules(await dtoWithEditor(report));
 }
 
-/** The report of an exam, if it has one. */
+/** The report of an exam, if it has one (urgent prompts as getReport shows them). */
 export async function reportOfExam(examId: number): Promise<ReportDto | null> {
   const report = await Report.findOne({ where: { examId } });
-  return report ? dtoWithEditor(report) : null;
+  return report ? withCurrentUrgentRules(await dtoWithEditor(report)) : null;
+}
+
+/**
+ * A report evaluated before the clinic switched a rule off still holds that rule's prompt: while
+ * it is being read it is not shown (nothing stored changes, so switching the rule on again shows
+ * it again). A signed report shows the prompts it was signed with.
+ */
+async function withCurrentUrgentRules(dto: ReportDto): Promise<ReportDto> {
+  if (dto.signedAt !== null || !dto.evaluation?.urgentPrompts.length) return dto;
+  const off = await disabledUrgentRules();
+  if (off.length === 0) return dto;
+  return { ...dto, evaluation: { ...dto.evaluation, urgentPrompts: dto.evaluation.urgentPrompts.filter((p) => !off.includes(p.ruleId)) } };
 }
 
 /** What the report form shows about the exam and offers as probes. */

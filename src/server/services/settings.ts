@@ -8,13 +8,16 @@ import {
   DEFAULT_REPORT_DELIVERY,
   paymentPolicySchema,
   reportDeliverySchema,
+  switchedOffRules,
+  urgentRulesSchema,
   type ClinicHours,
   type PaymentPolicy,
   type ReportDelivery,
 } from '../../lib/schemas/settings';
+import type { UrgentRuleId } from '../../lib/clinical/urgent';
 
-// Used until the manager saves a profile; the demo seed writes a full one.
-const FALLBACK: ClinicProfile = {
+/** Used until the manager saves a profile; the demo seed writes a full one. */
+export const DEFAULT_CLINIC_PROFILE: ClinicProfile = {
   name: 'Crestline clinic',
   addressLines: [],
   phone: '',
@@ -49,11 +52,11 @@ async function readSetting<T>(key: string, schema: { safeParse(v: unknown): { su
 /** The clinic profile (name, address, time zone). */
 export async function clinicProfile(transaction?: Transaction): Promise<ClinicProfile> {
   try {
-    return await readSetting('clinic', clinicProfileSchema, FALLBACK, transaction);
+    return await readSetting('clinic', clinicProfileSchema, DEFAULT_CLINIC_PROFILE, transaction);
   } catch (error) {
     // The sign-in page must still render when the database is away (not cached).
     if (transaction) throw error;
-    return FALLBACK;
+    return DEFAULT_CLINIC_PROFILE;
   }
 }
 
@@ -70,4 +73,9 @@ export function paymentPolicy(transaction?: Transaction): Promise<PaymentPolicy>
 /** Report delivery to referrers: link lifetime and whether the PDF is attached ('reports.delivery'). */
 export function reportDelivery(transaction?: Transaction): Promise<ReportDelivery> {
   return readSetting('reports.delivery', reportDeliverySchema, DEFAULT_REPORT_DELIVERY, transaction);
+}
+
+/** The urgent-finding rules the clinic has switched off ('reports.urgentRules'; every rule is on until then). */
+export async function disabledUrgentRules(transaction?: Transaction): Promise<UrgentRuleId[]> {
+  return switchedOffRules(await readSetting('reports.urgentRules', urgentRulesSchema, {}, transaction));
 }
