@@ -6,7 +6,7 @@
 //   npm test -- integration e2e    pick suites: unit, check, integration, e2e
 //   npm test -- integration tests/integration/dicom-network.test.ts   and only these files
 import { randomBytes } from 'node:crypto';
-import { mkdirSync, openSync } from 'node:fs';
+import { mkdirSync, openSync, rmSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -95,6 +95,8 @@ async function main() {
     mkdirSync(dir, { recursive: true });
     const appLog = path.join(dir, 'app.log');
     const logTo = (name) => openSync(path.join(dir, name), 'w');
+    // A fresh inbox each run: the catcher reloads what its folder holds, and accession numbers repeat from run to run.
+    rmSync(path.join(dir, 'mail'), { recursive: true, force: true });
     const mail = await startMaildev(root, { smtpPort, webPort: mailWebPort, dir: path.join(dir, 'mail'), logFile: logTo('maildev.log') });
     await startPaymentsFake(root, { port: paymentsPort, webhookUrl: `http://127.0.0.1:${appPort}/api/payments/webhook`, webhookSecret: env.STRIPE_WEBHOOK_SECRET, logFile: logTo('payments.log') });
     const web = await startWebServer(root, env, { host: '127.0.0.1', port: appPort, logFile: openSync(appLog, 'w'), logPath: appLog, entry: serverEntry(outDir) });

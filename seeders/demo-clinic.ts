@@ -174,6 +174,11 @@ async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transact
           currency: type.currency,
           cancelReason: st === 'cancelled' ? 'Patient asked to rebook' : null,
           createdAt: bookedAt,
+          // Checked in a few minutes early and started on time or a little late (from the
+          // accession counter, not the faker, so the rest of the demo stays as it was).
+          ...(st === 'completed' || st === 'in-progress'
+            ? { arrivedAt: new Date(at.getTime() - (4 + (n % 12)) * 60_000), startedAt: new Date(at.getTime() + (n % 7) * 60_000) }
+            : {}),
         });
         // Booked one to three weeks before the exam (and never after now), so the age of
         // each request in the reading queue and the turnaround figures look like a clinic's.
@@ -207,7 +212,14 @@ async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transact
           }
           if (template && !entries && status === 'completed') entries = demoEntries(faker, template, { partial: false });
           if (entries && !known) baselines.set(key, { entries, prior });
-          await seedReport(faker, { exam, patient, templateId: type.templateId, timeZone: CLINIC.timeZone, sonographerId: r.sonographer.id, entries, prior }, transaction);
+          // Most reports of two and three days ago are signed (turnaround for the dashboard); the
+          // rest, and everything since, wait in the reading queue.
+          const signed = status === 'completed' && offset <= -2 && n % 10 < 7;
+          await seedReport(
+            faker,
+            { exam, patient, templateId: type.templateId, timeZone: CLINIC.timeZone, sonographerId: r.sonographer.id, entries, prior, ...(signed ? { signer: w.reader, signAfterHours: 3 + (n % 20) } : {}) },
+            transaction,
+          );
         }
         // Leave a gap now and then, so the schedule shows free time.
         minute += type.durationMinutes + (faker.datatype.boolean(0.3) ? 15 * faker.number.int({ min: 1, max: 4 }) : 0);

@@ -89,7 +89,18 @@ function demoImpression(result: { findings: string[]; flags: Array<{ status: str
  */
 export async function seedReport(
   faker: Faker,
-  x: { exam: Exam; patient: Patient; templateId: string; timeZone: string; sonographerId: number; entries?: DemoEntries; prior?: PriorExamInput | null; signer?: { id: number; name: string } },
+  x: {
+    exam: Exam;
+    patient: Patient;
+    templateId: string;
+    timeZone: string;
+    sonographerId: number;
+    entries?: DemoEntries;
+    prior?: PriorExamInput | null;
+    signer?: { id: number; name: string };
+    /** Hours from submission to signature; drawn at random when not given. */
+    signAfterHours?: number;
+  },
   transaction: Transaction,
 ): Promise<PriorExamInput | null> {
   const template = getTemplate(x.templateId as TemplateId);
@@ -135,8 +146,10 @@ export async function seedReport(
     },
     { transaction },
   );
+  // The exam completes with its preliminary report, as "Submit preliminary" does.
+  if (submittedAt) await x.exam.update({ completedAt: submittedAt }, { transaction, silent: true });
   if (x.signer && submittedAt) {
-    const signedAt = new Date(submittedAt.getTime() + faker.number.int({ min: 2, max: 30 }) * 3_600_000);
+    const signedAt = new Date(submittedAt.getTime() + (x.signAfterHours ?? faker.number.int({ min: 2, max: 30 })) * 3_600_000);
     const findingsHtml = findingsToHtml(report.findingsText);
     const impressionHtml = demoImpression(result);
     const signedHash = createHash('sha256').update(signedContent({ report, findingsHtml, impressionHtml, signer: x.signer, signedAt })).digest('hex');

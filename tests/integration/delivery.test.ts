@@ -48,7 +48,8 @@ async function signed(reportId: number, impression: string): Promise<void> {
 async function deliveredFor(accession: string): Promise<Caught> {
   await deliverDueMail(smtp(), { workerId: 'test-delivery', batch: 10_000 });
   const inbox = (await (await fetch(`${maildev()}/email`)).json()) as Caught[];
-  const mail = inbox.find((m) => m.subject.includes(accession));
+  // The newest one: the catcher may hold an older e-mail for the same accession number.
+  const mail = inbox.findLast((m) => m.subject.includes(accession));
   expect(mail, `no e-mail for ${accession}`).toBeDefined();
   return mail!;
 }

@@ -1,11 +1,9 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useForm } from 'react-hook-form';
 import type { ClinicProfile } from '../../lib/schemas/clinic';
 import { clinicSettingsSchema, type ClinicSettingsInput, type SettingState } from '../../lib/schemas/settings';
-import { showApiError } from '../forms/api-errors';
 import { Field } from '../users/Field';
 import { SectionCard } from './SectionCard';
-import { useSettingSave } from './useSettingSave';
+import { useSettingForm } from './useSettingSave';
 
 const ADDRESS_LINES = 4;
 
@@ -17,39 +15,26 @@ function toForm(s: SettingState<ClinicProfile>): ClinicSettingsInput {
 
 /** The clinic's name, address, contact details and time zone. */
 export function ClinicSection({ initial, timeZones, timeZone }: { initial: SettingState<ClinicProfile>; timeZones: string[]; timeZone: string }) {
-  const s = useSettingSave('clinic', 'clinic', initial);
-  const {
-    register,
-    handleSubmit,
-    reset,
-    setError,
-    watch,
-    formState: { errors, isSubmitting, isDirty },
-  } = useForm<ClinicSettingsInput>({ resolver: zodResolver(clinicSettingsSchema), defaultValues: toForm(initial) });
-  const chosenZone = watch('timeZone');
-
-  const onSubmit = handleSubmit(async (values) => {
-    const answer = await s.save<{ setting: SettingState<ClinicProfile> }>(values, (e) => showApiError(e, setError, 'The clinic profile could not be saved.'));
-    if (!answer) return;
-    reset(toForm(answer.setting));
-    s.setNotice('Clinic profile saved.');
+  const { saved, form, card } = useSettingForm<ClinicProfile, ClinicSettingsInput, { setting: SettingState<ClinicProfile> }>({
+    path: 'clinic',
+    group: 'clinic',
+    initial,
+    resolver: zodResolver(clinicSettingsSchema),
+    toForm,
+    failMessage: 'The clinic profile could not be saved.',
+    done: () => 'Clinic profile saved.',
   });
+  const { register, watch, formState: { errors } } = form;
+  const chosenZone = watch('timeZone');
 
   return (
     <SectionCard
+      {...card}
       id="settings-clinic"
       title="Clinic"
       description={<p>How the clinic is named on screens, letters, e-mails and report PDFs, and the time zone its days and clock times are shown in.</p>}
-      saved={s.saved}
       timeZone={timeZone}
       submitLabel="Save clinic profile"
-      submitting={isSubmitting}
-      dirty={isDirty}
-      notice={s.notice}
-      stale={s.stale}
-      rootError={errors.root?.message}
-      onSubmit={onSubmit}
-      onLoadSaved={async () => reset(toForm(await s.latest()))}
     >
       <div className="grid gap-4 sm:grid-cols-2">
         <Field id="clinic-name" label="Clinic name" error={errors.name?.message}>
@@ -83,9 +68,9 @@ export function ClinicSection({ initial, timeZones, timeZone }: { initial: Setti
           {timeZones.map((tz) => <option key={tz} value={tz}>{tz.replaceAll('_', ' ')}</option>)}
         </select>
       </Field>
-      {chosenZone !== s.saved.value.timeZone && (
+      {chosenZone !== saved.value.timeZone && (
         <p role="note" className="rounded-md bg-dune-50 px-3 py-2 text-sm text-dune-700 ring-1 ring-dune-300">
-          Changing the time zone from {s.saved.value.timeZone} to {chosenZone} changes only how times are shown. Every booking, report and payment keeps its stored moment (in UTC), so an exam booked for 09:00 will show at a different clock time if the zones differ, and “today” on the worklist starts at the new zone’s midnight. Nothing is moved or rewritten.
+          Changing the time zone from {saved.value.timeZone} to {chosenZone} changes only how times are shown. Every booking, report and payment keeps its stored moment (in UTC), so an exam booked for 09:00 will show at a different clock time if the zones differ, and “today” on the worklist starts at the new zone’s midnight. Nothing is moved or rewritten.
         </p>
       )}
     </SectionCard>

@@ -1,12 +1,10 @@
 import { zodResolver } from '@hookform/resolvers/zod';
 import { useState } from 'react';
-import { useForm } from 'react-hook-form';
 import { hoursSettingsSchema, type BookedOnClosedDate, type ClinicHours, type HoursSettingsInput, type SettingState } from '../../lib/schemas/settings';
 import { formatDay } from '../../lib/time';
-import { showApiError } from '../forms/api-errors';
 import { ClosedDates } from './ClosedDates';
 import { SectionCard } from './SectionCard';
-import { useSettingSave } from './useSettingSave';
+import { useSettingForm } from './useSettingSave';
 import { WeekdaySessions } from './WeekdaySessions';
 
 // Monday first, as the clinic's week is read; the stored week starts on Sunday (index 0).
@@ -16,33 +14,26 @@ const toForm = (s: SettingState<ClinicHours>): HoursSettingsInput => ({ ...struc
 
 /** Opening sessions per weekday and closed dates. */
 export function HoursSection({ initial, timeZone, today }: { initial: SettingState<ClinicHours>; timeZone: string; today: string }) {
-  const s = useSettingSave('hours', 'hours', initial);
   const [stillBooked, setStillBooked] = useState<BookedOnClosedDate[]>([]);
-  const {
-    control,
-    register,
-    handleSubmit,
-    reset,
-    setError,
-    setValue,
-    watch,
-    formState: { errors, isSubmitting, isDirty },
-  } = useForm<HoursSettingsInput>({ resolver: zodResolver(hoursSettingsSchema), defaultValues: toForm(initial) });
-  const closedDates = watch('closedDates');
-
-  const onSubmit = handleSubmit(async (values) => {
-    setStillBooked([]);
-    const answer = await s.save<{ setting: SettingState<ClinicHours>; bookedOnClosedDates: BookedOnClosedDate[] }>(values, (e) =>
-      showApiError(e, setError, 'The opening hours could not be saved.'),
-    );
-    if (!answer) return;
-    reset(toForm(answer.setting));
-    setStillBooked(answer.bookedOnClosedDates);
-    s.setNotice('Opening hours saved.');
+  const { form, card } = useSettingForm<ClinicHours, HoursSettingsInput, { setting: SettingState<ClinicHours>; bookedOnClosedDates: BookedOnClosedDate[] }>({
+    path: 'hours',
+    group: 'hours',
+    initial,
+    resolver: zodResolver(hoursSettingsSchema),
+    toForm,
+    failMessage: 'The opening hours could not be saved.',
+    beforeSave: () => setStillBooked([]),
+    done: (answer) => {
+      setStillBooked(answer.bookedOnClosedDates);
+      return 'Opening hours saved.';
+    },
   });
+  const { control, register, setValue, watch, formState: { errors } } = form;
+  const closedDates = watch('closedDates');
 
   return (
     <SectionCard
+      {...card}
       id="settings-hours"
       title="Opening hours"
       description={
@@ -51,16 +42,8 @@ export function HoursSection({ initial, timeZone, today }: { initial: SettingSta
           <p>Changing the hours never moves or cancels booked exams: they stay where they are, even outside the new hours. New bookings and free-time suggestions follow the new hours.</p>
         </>
       }
-      saved={s.saved}
       timeZone={timeZone}
       submitLabel="Save opening hours"
-      submitting={isSubmitting}
-      dirty={isDirty}
-      notice={s.notice}
-      stale={s.stale}
-      rootError={errors.root?.message}
-      onSubmit={onSubmit}
-      onLoadSaved={async () => reset(toForm(await s.latest()))}
     >
       {stillBooked.length > 0 && (
         <div role="note" className="rounded-md bg-dune-50 px-3 py-2 text-sm text-dune-700 ring-1 ring-dune-300">

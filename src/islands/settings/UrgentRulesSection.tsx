@@ -1,11 +1,9 @@
 import { zodResolver } from '@hookform/resolvers/zod';
-import { useForm } from 'react-hook-form';
 import { URGENT_RULES, type UrgentRuleId } from '../../lib/clinical/urgent';
 import { URGENT_RULE_IDS, urgentRulesSettingsSchema, type SettingState, type UrgentRulesSettingsInput } from '../../lib/schemas/settings';
-import { showApiError } from '../forms/api-errors';
 import { SectionCard } from './SectionCard';
 import { Switch } from './Switch';
-import { useSettingSave } from './useSettingSave';
+import { useSettingForm } from './useSettingSave';
 
 type Rules = Record<UrgentRuleId, boolean>;
 const WITHIN = { 1: 'within minutes', 2: 'within hours', 3: 'within days' } as const;
@@ -13,25 +11,23 @@ const toForm = (s: SettingState<Rules>): UrgentRulesSettingsInput => ({ rules: {
 
 /** One switch per urgent-finding rule of the clinical engine, with its name and source. */
 export function UrgentRulesSection({ initial, timeZone }: { initial: SettingState<Rules>; timeZone: string }) {
-  const s = useSettingSave('urgent-rules', 'urgentRules', initial);
-  const {
-    register,
-    handleSubmit,
-    reset,
-    setError,
-    formState: { errors, isSubmitting, isDirty },
-  } = useForm<UrgentRulesSettingsInput>({ resolver: zodResolver(urgentRulesSettingsSchema), defaultValues: toForm(initial) });
-
-  const onSubmit = handleSubmit(async (values) => {
-    const answer = await s.save<{ setting: SettingState<Rules> }>(values, (e) => showApiError(e, setError, 'The urgent-finding prompts could not be saved.'));
-    if (!answer) return;
-    reset(toForm(answer.setting));
-    const off = URGENT_RULE_IDS.filter((id) => !answer.setting.value[id]).length;
-    s.setNotice(off === 0 ? 'Saved: every rule prompts.' : `Saved: ${off} rule${off === 1 ? '' : 's'} switched off.`);
+  const { form, card } = useSettingForm<Rules, UrgentRulesSettingsInput>({
+    path: 'urgent-rules',
+    group: 'urgentRules',
+    initial,
+    resolver: zodResolver(urgentRulesSettingsSchema),
+    toForm,
+    failMessage: 'The urgent-finding prompts could not be saved.',
+    done: (answer) => {
+      const off = URGENT_RULE_IDS.filter((id) => !answer.setting.value[id]).length;
+      return off === 0 ? 'Saved: every rule prompts.' : `Saved: ${off} rule${off === 1 ? '' : 's'} switched off.`;
+    },
   });
+  const { register, formState: { errors } } = form;
 
   return (
     <SectionCard
+      {...card}
       id="settings-urgent"
       title="Urgent-finding prompts"
       description={
@@ -40,16 +36,8 @@ export function UrgentRulesSection({ initial, timeZone }: { initial: SettingStat
           <p>A rule switched off stops prompting on reports worked on from now on and on reports still waiting to be read. Signed reports keep what they showed, and the measurements are still flagged as before.</p>
         </>
       }
-      saved={s.saved}
       timeZone={timeZone}
       submitLabel="Save urgent-finding prompts"
-      submitting={isSubmitting}
-      dirty={isDirty}
-      notice={s.notice}
-      stale={s.stale}
-      rootError={errors.root?.message}
-      onSubmit={onSubmit}
-      onLoadSaved={async () => reset(toForm(await s.latest()))}
     >
       <ul className="divide-y divide-ink-50">
         {URGENT_RULE_IDS.map((id) => {

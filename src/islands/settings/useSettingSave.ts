@@ -1,5 +1,7 @@
 import { useState } from 'react';
+import { useForm, type DefaultValues, type FieldValues, type Resolver } from 'react-hook-form';
 import { api, ApiError } from '../../lib/api-client';
+import { showApiError } from '../forms/api-errors';
 import type { ClinicSettingsDto, SettingsGroup, SettingState } from '../../lib/schemas/settings';
 
 /** A save refused because someone else saved first; `current` is what they saved. */
@@ -43,4 +45,45 @@ export function useSettingSave<T>(path: string, group: SettingsGroup, initial: S
   }
 
   return { saved, notice, setNotice, stale, save, latest };
+}
+
+/**
+ * A whole settings section's form: react-hook-form over the section's schema, the save with its
+ * version, field errors from the server, the reset to what was saved, and the props the
+ * section's card needs (saved, notice, stale save, submit). `done` words the notice from the
+ * server's answer (and may keep more of it, e.g. the exams still booked on a closed day).
+ *
+ * @example const { form, card } = useSettingForm({ path: 'delivery', group: 'delivery', initial, resolver: zodResolver(deliverySettingsSchema), toForm, failMessage, done: () => 'Saved.' });
+ */
+export function useSettingForm<T, F extends FieldValues, A extends { setting: SettingState<T> } = { setting: SettingState<T> }>(o: {
+  path: string;
+  group: SettingsGroup;
+  initial: SettingState<T>;
+  resolver: Resolver<F>;
+  toForm: (saved: SettingState<T>) => F;
+  failMessage: string;
+  done: (answer: A) => string;
+  /** Runs before each save (e.g. to clear a note of the last answer). */
+  beforeSave?: () => void;
+}) {
+  const s = useSettingSave<T>(o.path, o.group, o.initial);
+  const form = useForm<F>({ resolver: o.resolver, defaultValues: o.toForm(o.initial) as DefaultValues<F> });
+  const onSubmit = form.handleSubmit(async (values) => {
+    o.beforeSave?.();
+    const answer = await s.save<A>(values, (e) => showApiError(e, form.setError, o.failMessage));
+    if (!answer) return;
+    form.reset(o.toForm(answer.setting));
+    s.setNotice(o.done(answer));
+  });
+  const card = {
+    saved: s.saved,
+    notice: s.notice,
+    stale: s.stale,
+    submitting: form.formState.isSubmitting,
+    dirty: form.formState.isDirty,
+    rootError: form.formState.errors.root?.message,
+    onSubmit,
+    onLoadSaved: async () => form.reset(o.toForm(await s.latest())),
+  };
+  return { saved: s.saved, form, card };
 }
