@@ -1,6 +1,7 @@
 import { Faker, en } from '@faker-js/faker';
 import type { Sequelize, Transaction } from 'sequelize';
-import { Exam, ExamType, Patient, Probe, Referrer, Room, Scanner, Setting, User } from '../src/db/models';
+import { createHash } from 'node:crypto';
+import { Exam, ExamType, Patient, Payment, Probe, Referrer, Room, Scanner, Setting, User } from '../src/db/models';
 import { hashPassword } from '../src/server/auth/password';
 import { raiseTo } from '../src/server/services/sequences';
 import { DEFAULT_CLINIC_HOURS, DEFAULT_PAYMENT_POLICY } from '../src/lib/schemas/settings';
@@ -184,6 +185,9 @@ async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transact
         // each request in the reading queue and the turnaround figures look like a clinic's.
         const bookedAt = new Date(Math.min(start.getTime(), w.now.getTime()) - faker.number.int({ min: 1 * 24 * 60, max: 21 * 24 * 60 }) * 60_000);
         const exam = await Exam.create(examRow(start, status, accessionFrom(day, n), bookedAt), { transaction });
+        // One in three of the week's scanned patients paid themselves: the deposit when booking,
+        // the balance after the scan (the takings on the manager's dashboard).
+        if (status === 'completed' && n % 3 === 0) await seedPaidInFull(exam, type, transaction);
         if (status === 'completed' || status === 'in-progress') {
           // Some thyroid and abdomen patients were scanned here before: signed priors to compare with.
           // A patient seen twice this week for the same exam keeps the same values and history.
@@ -226,6 +230,37 @@ async function seedWeekOfExams(faker: Faker, w: WeekInput, transaction: Transact
       }
     }
   }
+}
+
+/** A self-pay exam paid in full with a test card: deposit at booking, balance after the scan. */
+async function seedPaidInFull(exam: Exam, type: ExamType, transaction: Transaction): Promise<void> {
+  await exam.update({ payer: 'self-pay', depositCents: type.depositCents, paymentState: 'paid' }, { transaction, silent: true });
+  // Stable keys and intent ids from the accession number (the provider never saw these demo payments).
+  const key = (kind: string) => createHash('sha256').update(`demo:${exam.accessionNumber}:${kind}`).digest('hex').slice(0, 32);
+  const paid = (kind: 'deposit' | 'balance', amountCents: number, at: Date) => ({
+    examId: exam.id,
+    kind,
+    amountCents,
+    currency: exam.currency,
+    status: 'succeeded' as const,
+    idempotencyKey: key(kind),
+    paymentMethod: 'pm_card_visa',
+    providerIntentId: `pi_demo_${key(kind).slice(0, 24)}`,
+    providerRefundId: null,
+    refundOfId: null,
+    failureCode: null,
+    failureMessage: null,
+    createdBy: null,
+    createdAt: at,
+    updatedAt: at,
+  });
+  await Payment.bulkCreate(
+    [
+      paid('deposit', type.depositCents, new Date(exam.createdAt.getTime() + 3 * 60_000)),
+      paid('balance', exam.priceCents - type.depositCents, new Date(exam.scheduledEnd.getTime() + 10 * 60_000)),
+    ],
+    { transaction },
+  );
 }
 
 function statusFor(faker: Faker, start: Date, minutes: number, now: Date): ExamStatus {

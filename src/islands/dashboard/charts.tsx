@@ -110,7 +110,7 @@ export function TakingsChart({ rows, currency }: { rows: TakingsRow[]; currency:
       <Bar dataKey="deposits" name="Deposits" stackId="money" fill={PALETTE.crest300} isAnimationActive={false} />
       <Bar dataKey="balances" name="Balances" stackId="money" fill={PALETTE.crest600} isAnimationActive={false} />
       <Bar dataKey="refunds" name="Refunds" stackId="money" fill={PALETTE.high600} isAnimationActive={false} />
-      <Line dataKey="net" name="Net takings" type="monotone" stroke={PALETTE.ink700} dot={false} strokeWidth={2} isAnimationActive={false} />
+      <Line dataKey="net" name="Net takings" type="linear" stroke={PALETTE.ink700} dot strokeWidth={2} isAnimationActive={false} />
     </ComposedChart>
   );
 }
