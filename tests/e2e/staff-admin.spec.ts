@@ -35,6 +35,8 @@ test('the manager deactivates an account and it can no longer sign in', async ({
   await form.getByLabel('E-mail').fill(email);
   await form.getByLabel('First password').fill('a long first password');
   await form.getByRole('button', { name: 'Create account' }).click();
+  // As a person would: see the account made, then look it up.
+  await expect(page.getByRole('status')).toContainText('Account created for Leaving Soon');
   await page.getByLabel('Search').fill(email);
   await page.getByRole('button', { name: 'Manage Leaving Soon' }).click();
   await page.getByRole('button', { name: 'Deactivate account' }).click();
