@@ -6,6 +6,7 @@ import { patientsQuery } from '../lib/queries/patients';
 import { describePatientSearch, formatIsoDate } from '../lib/schemas/patient-search';
 import { patientName, SEX_LABELS, type PatientListQuery, type PatientSummary } from '../lib/schemas/patients';
 import { PatientForm } from './patients/PatientForm';
+import { SortableTh } from './table/SortableTh';
 
 interface Props {
   /** Front desk and manager register patients; other roles only look them up. */
@@ -125,22 +126,9 @@ function PatientsList({ canCreate }: Props) {
           <thead className="bg-ink-50/60">
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
-                {hg.headers.map((h) => {
-                  const sortable = SORTABLE.has(h.column.id);
-                  const dir = h.column.getIsSorted();
-                  return (
-                    <th key={h.id} scope="col" aria-sort={dir ? (dir === 'asc' ? 'ascending' : 'descending') : undefined}>
-                      {sortable ? (
-                        <button type="button" className="inline-flex items-center gap-1 uppercase hover:text-ink-800" onClick={h.column.getToggleSortingHandler()}>
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden="true">{dir === 'asc' ? '▲' : dir === 'desc' ? '▼' : '↕'}</span>
-                        </button>
-                      ) : (
-                        flexRender(h.column.columnDef.header, h.getContext())
-                      )}
-                    </th>
-                  );
-                })}
+                {hg.headers.map((h) => (
+                  <SortableTh key={h.id} header={h} sortable={SORTABLE.has(h.column.id)} />
+                ))}
               </tr>
             ))}
           </thead>

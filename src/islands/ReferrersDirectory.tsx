@@ -5,6 +5,7 @@ import { queryClient } from '../lib/query-client';
 import { referrersQuery } from '../lib/queries/referrers';
 import type { ReferrerListParams, ReferrerRow } from '../lib/schemas/referrers';
 import { ReferrerForm } from './referrers/ReferrerForm';
+import { SortableTh } from './table/SortableTh';
 
 const col = createColumnHelper<ReferrerRow>();
 const PAGE_SIZE = 20;
@@ -111,22 +112,9 @@ function ReferrersTable() {
           <thead className="bg-ink-50/60">
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
-                {hg.headers.map((h) => {
-                  const sortable = SORTABLE.has(h.column.id);
-                  const dir = h.column.getIsSorted();
-                  return (
-                    <th key={h.id} scope="col" aria-sort={dir ? (dir === 'asc' ? 'ascending' : 'descending') : undefined}>
-                      {sortable ? (
-                        <button type="button" className="inline-flex items-center gap-1 uppercase hover:text-ink-800" onClick={h.column.getToggleSortingHandler()}>
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden="true">{dir === 'asc' ? '▲' : dir === 'desc' ? '▼' : '↕'}</span>
-                        </button>
-                      ) : (
-                        flexRender(h.column.columnDef.header, h.getContext())
-                      )}
-                    </th>
-                  );
-                })}
+                {hg.headers.map((h) => (
+                  <SortableTh key={h.id} header={h} sortable={SORTABLE.has(h.column.id)} />
+                ))}
               </tr>
             ))}
           </thead>

@@ -15,6 +15,7 @@ import type { UserListQuery, UserRow } from '../lib/schemas/users';
 import { NewUserForm } from './users/NewUserForm';
 import { ManageUser } from './users/ManageUser';
 import type { ReferrerChoice } from './users/types';
+import { SortableTh } from './table/SortableTh';
 
 interface Props {
   referrers: ReferrerChoice[];
@@ -148,22 +149,9 @@ function UsersTable({ referrers, currentUserId, timeZone }: Props) {
           <thead className="bg-ink-50/60">
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
-                {hg.headers.map((h) => {
-                  const sortable = h.column.getCanSort() && h.column.id !== 'status' && h.column.id !== 'actions';
-                  const dir = h.column.getIsSorted();
-                  return (
-                    <th key={h.id} scope="col" aria-sort={dir ? (dir === 'asc' ? 'ascending' : 'descending') : undefined}>
-                      {sortable ? (
-                        <button type="button" className="inline-flex items-center gap-1 uppercase hover:text-ink-800" onClick={h.column.getToggleSortingHandler()}>
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden="true">{dir === 'asc' ? '▲' : dir === 'desc' ? '▼' : '↕'}</span>
-                        </button>
-                      ) : (
-                        flexRender(h.column.columnDef.header, h.getContext())
-                      )}
-                    </th>
-                  );
-                })}
+                {hg.headers.map((h) => (
+                  <SortableTh key={h.id} header={h} sortable={h.column.getCanSort() && h.column.id !== 'status' && h.column.id !== 'actions'} />
+                ))}
               </tr>
             ))}
           </thead>

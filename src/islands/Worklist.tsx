@@ -8,6 +8,7 @@ import { worklistQuery } from '../lib/queries/exams';
 import type { WorklistQuery, WorklistRow } from '../lib/schemas/exams';
 import { addDays, formatDay } from '../lib/time';
 import { PaymentLabel, StatusPill } from './worklist/badges';
+import { SortableTh } from './table/SortableTh';
 
 interface Props {
   today: string;
@@ -175,19 +176,9 @@ function WorklistTable({ today, initialDay, rooms, sonographers, canCheckIn, can
           <thead className="bg-ink-50/60">
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
-                {hg.headers.map((h) => {
-                  const dir = h.column.getIsSorted();
-                  return (
-                    <th key={h.id} scope="col" aria-sort={dir ? (dir === 'asc' ? 'ascending' : 'descending') : undefined}>
-                      {h.column.id !== 'actions' ? (
-                        <button type="button" className="inline-flex items-center gap-1 uppercase hover:text-ink-800" onClick={h.column.getToggleSortingHandler()}>
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden="true">{dir === 'asc' ? '▲' : dir === 'desc' ? '▼' : '↕'}</span>
-                        </button>
-                      ) : flexRender(h.column.columnDef.header, h.getContext())}
-                    </th>
-                  );
-                })}
+                {hg.headers.map((h) => (
+                  <SortableTh key={h.id} header={h} sortable={h.column.id !== 'actions'} />
+                ))}
               </tr>
             ))}
           </thead>

@@ -11,6 +11,7 @@ import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { ApiError } from '../../lib/api-client';
 import type { ActiveChangeResult } from '../../lib/schemas/catalog-admin';
 import { catalogQuery, setActive, type CatalogList, type CatalogRows } from './queries';
+import { SortableTh } from '../table/SortableTh';
 
 export interface Toggle {
   /** The button's words, e.g. "Deactivate". */
@@ -148,21 +149,9 @@ export function CatalogPanel<L extends CatalogList>({ list, noun, columns, initi
           <thead className="bg-ink-50/60">
             {table.getHeaderGroups().map((hg) => (
               <tr key={hg.id}>
-                {hg.headers.map((h) => {
-                  const dir = h.column.getIsSorted();
-                  return (
-                    <th key={h.id} scope="col" aria-sort={dir ? (dir === 'asc' ? 'ascending' : 'descending') : undefined}>
-                      {h.column.getCanSort() ? (
-                        <button type="button" className="inline-flex items-center gap-1 uppercase hover:text-ink-800" onClick={h.column.getToggleSortingHandler()}>
-                          {flexRender(h.column.columnDef.header, h.getContext())}
-                          <span aria-hidden="true">{dir === 'asc' ? '▲' : dir === 'desc' ? '▼' : '↕'}</span>
-                        </button>
-                      ) : (
-                        flexRender(h.column.columnDef.header, h.getContext())
-                      )}
-                    </th>
-                  );
-                })}
+                {hg.headers.map((h) => (
+                  <SortableTh key={h.id} header={h} sortable={h.column.getCanSort()} />
+                ))}
               </tr>
             ))}
           </thead>
