@@ -14,7 +14,8 @@ const hosts = ['localhost', '127.0.0.1', ...(process.env.CRESTLINE_HOSTS ?? '').
 
 export default defineConfig({
   output: 'server',
-  adapter: node({ mode: 'standalone' }),
+  // Middleware mode: scripts/serve.mjs is the HTTP server (static files from a list, the rest to Astro).
+  adapter: node({ mode: 'middleware' }),
   integrations: [react(), auth()],
   security: {
     checkOrigin: true,

@@ -47,7 +47,7 @@ async function main() {
   ensureNodeModules(root);
   const { freePort } = await import('./lib/net.mjs');
   const { mariadbPaths, startMariaDb, provision } = await import('./lib/mariadb.mjs');
-  const { buildIfStale, serverEntry } = await import('./lib/build.mjs');
+  const { buildIfStale } = await import('./lib/build.mjs');
   const { dbTask, startWebServer } = await import('./lib/stack.mjs');
   const { startDicomListener, startMaildev, startPaymentsFake, startWorker } = await import('./lib/standins.mjs');
 
@@ -99,10 +99,10 @@ async function main() {
     rmSync(path.join(dir, 'mail'), { recursive: true, force: true });
     const mail = await startMaildev(root, { smtpPort, webPort: mailWebPort, dir: path.join(dir, 'mail'), logFile: logTo('maildev.log') });
     await startPaymentsFake(root, { port: paymentsPort, webhookUrl: `http://127.0.0.1:${appPort}/api/payments/webhook`, webhookSecret: env.STRIPE_WEBHOOK_SECRET, logFile: logTo('payments.log') });
-    const web = await startWebServer(root, env, { host: '127.0.0.1', port: appPort, logFile: openSync(appLog, 'w'), logPath: appLog, entry: serverEntry(outDir) });
+    const web = await startWebServer(root, env, { host: '127.0.0.1', port: appPort, logFile: openSync(appLog, 'w'), logPath: appLog, outDir });
     await startDicomListener(root, env, { host: '127.0.0.1', port: dicomPort, logFile: logTo('dicom.log') });
     timings.push({ name: 'build and start app', seconds: (Date.now() - t1) / 1000, ok: true });
-    const testEnv = { ...env, APP_URL: web.url, APP_LOG: appLog, APP_ENTRY: serverEntry(outDir), CRESTLINE_TEST_DIR: dir, MAILDEV_URL: mail.url };
+    const testEnv = { ...env, APP_URL: web.url, APP_LOG: appLog, APP_OUT_DIR: outDir, CRESTLINE_TEST_DIR: dir, MAILDEV_URL: mail.url };
 
     if (run.has('integration')) ok = step('integration tests', 'npx', ['vitest', 'run', '--project', 'integration', ...files.filter((f) => f.includes('/integration/'))], testEnv) && ok;
     // Integration tests drive the outbox themselves; the browser tests need the real worker.

@@ -30,5 +30,3 @@ export function buildIfStale(root, outDir = path.join(root, 'dist')) {
   return true;
 }
 
-/** The server entry of a build. */
-export const serverEntry = (outDir) => path.join(outDir, 'server', 'entry.mjs');

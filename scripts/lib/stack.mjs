@@ -1,4 +1,5 @@
 import { spawn, spawnSync } from 'node:child_process';
+import path from 'node:path';
 import { fail, say } from './say.mjs';
 import { waitForHttp } from './net.mjs';
 import { stopChild, track } from './children.mjs';
@@ -16,11 +17,11 @@ export function dbTask(root, env, ...args) {
 }
 
 /**
- * Starts the built server (`entry`, default dist/server/entry.mjs) and waits for /api/health.
- * Returns { url, child, stop() }.
+ * Starts the web server (scripts/serve.mjs) on the build in `outDir` (default dist) and waits
+ * for /api/health. Returns { url, child, stop() }.
  */
-export async function startWebServer(root, env, { host, port, logFile, logPath, entry = 'dist/server/entry.mjs' }) {
-  const child = spawn(process.execPath, [entry], {
+export async function startWebServer(root, env, { host, port, logFile, logPath, outDir = path.join(root, 'dist') }) {
+  const child = spawn(process.execPath, [path.join(root, 'scripts', 'serve.mjs'), outDir], {
     cwd: root,
     env: { ...process.env, ...env, HOST: host, PORT: String(port), NODE_ENV: 'production' },
     stdio: ['ignore', logFile ?? 'inherit', logFile ?? 'inherit'],

@@ -22,7 +22,7 @@ function freePort(): Promise<number> {
 beforeAll(async () => {
   const [appPort, deadPort] = [await freePort(), await freePort()];
   url = `http://127.0.0.1:${appPort}`;
-  child = spawn(process.execPath, [process.env.APP_ENTRY ?? 'dist/server/entry.mjs'], {
+  child = spawn(process.execPath, ['scripts/serve.mjs', process.env.APP_OUT_DIR ?? 'dist'], {
     cwd: ROOT,
     env: {
       ...process.env,
