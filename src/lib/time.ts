@@ -90,16 +90,13 @@ export function ageOn(birthDate: string, onDate: string): number {
   return y - by - (m < bm || (m === bm && d < bd) ? 1 : 0);
 }
 
+// Making an Intl formatter costs far more than using one: one for the whole process.
+const dayFormat = new Intl.DateTimeFormat('en-GB', { timeZone: 'UTC', weekday: 'short', day: 'numeric', month: 'short', year: 'numeric' });
+
 /** Human date in the zone, e.g. "Wed 2 Dec 2026". */
 export function formatDay(isoDate: string): string {
   const [y, m, d] = isoDate.split('-').map(Number) as [number, number, number];
-  return new Intl.DateTimeFormat('en-GB', {
-    timeZone: 'UTC',
-    weekday: 'short',
-    day: 'numeric',
-    month: 'short',
-    year: 'numeric',
-  }).format(new Date(Date.UTC(y, m - 1, d)));
+  return dayFormat.format(new Date(Date.UTC(y, m - 1, d)));
 }
 
 function pad(n: number): string {

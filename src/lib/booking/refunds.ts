@@ -36,7 +36,11 @@ export function refundOnCancel(input: {
   };
 }
 
+const moneyFormats = new Map<string, Intl.NumberFormat>();
+
 /** Formats integer cents with a currency code, e.g. formatMoney(7500, 'USD') → "$75.00". */
 export function formatMoney(cents: number, currency: string): string {
-  return new Intl.NumberFormat('en-US', { style: 'currency', currency }).format(cents / 100);
+  let format = moneyFormats.get(currency);
+  if (!format) moneyFormats.set(currency, (format = new Intl.NumberFormat('en-US', { style: 'currency', currency })));
+  return format.format(cents / 100);
 }

@@ -91,10 +91,10 @@ export function describePatientSearch(search: PatientSearch): string {
   }
 }
 
+const isoDateFormat = new Intl.DateTimeFormat('en-GB', { timeZone: 'UTC', day: 'numeric', month: 'short', year: 'numeric' });
+
 /** A calendar date for people, e.g. formatIsoDate('1980-03-12') → "12 Mar 1980". */
 export function formatIsoDate(iso: string): string {
   const [y, m, d] = iso.split('-').map(Number) as [number, number, number];
-  return new Intl.DateTimeFormat('en-GB', { timeZone: 'UTC', day: 'numeric', month: 'short', year: 'numeric' }).format(
-    new Date(Date.UTC(y, m - 1, d)),
-  );
+  return isoDateFormat.format(new Date(Date.UTC(y, m - 1, d)));
 }
