@@ -3,6 +3,7 @@ import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Report, User } from '../../src/db/models';
 import { CAUTION_TEXT } from '../../src/lib/caution';
+import { REFERENCE_RANGES } from '../../src/lib/clinical';
 import type { StoredEvaluation } from '../../src/lib/schemas/reports';
 import { DEMO_LOGIN, DEMO_PASSWORD } from '../helpers/demo';
 import { closeTestDb, testDb } from '../helpers/db';
@@ -61,7 +62,7 @@ const flat = (text: string) => text.replace(/\s+/g, ' ').trim();
 describe('the final report as a PDF', () => {
   it('a signed report: patient, impression, signer, fingerprint, accession, a flag’s source and the caution as real text', async () => {
     // The first waiting report whose stored evaluation has a reference check with a source.
-    const sourced = async (w: Waiting) => ((await Report.findByPk(w.id))!.evaluation as StoredEvaluation | null)?.flags.find((f) => f.source !== null);
+    const sourced = async (w: Waiting) => ((await Report.findByPk(w.id))!.evaluation as StoredEvaluation | null)?.flags.find((f) => f.referenceId !== null);
     let report: Waiting | undefined;
     for (const w of waiting) {
       if (await sourced(w)) {
@@ -96,8 +97,9 @@ describe('the final report as a PDF', () => {
     expect(text).toContain(`Electronically signed by ${signer.displayName}`);
     expect(text).toContain(row.signedHash!);
     expect(text).toContain(report.accession_number);
-    // The source as stored with the flag (a reference row of src/lib/clinical/reference/*-rows.ts).
-    expect(text).toContain(flat(flag.source!));
+    // The source of the flag's reference row (src/lib/clinical/reference/*-rows.ts; stored flags name the row by id).
+    const source = REFERENCE_RANGES.find((r) => r.id === flag.referenceId)!.source;
+    expect(text).toContain(flat(source));
     expect(text).toContain(CAUTION_TEXT);
     expect(text).toMatch(/Page 1 of \d+/);
   });

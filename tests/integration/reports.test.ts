@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { AuditEvent, Exam, Patient, Report } from '../../src/db/models';
 import { evaluate, REFERENCE_RANGES, type EvaluateInput } from '../../src/lib/clinical';
+import { storedEvaluation } from '../../src/lib/schemas/reports';
 import { zonedDate } from '../../src/lib/time';
 import { at, book, bookingBody, catalog, testDay, TZ, type Catalog } from '../helpers/booking';
 import { closeTestDb, testDb } from '../helpers/db';
@@ -63,7 +64,11 @@ describe('saving a draft stores exactly what the engine computes', () => {
     const row = (await Report.findByPk(reportId))!;
     const stored = row.evaluation as { derived: unknown; flags: unknown; findings: unknown; assessments: { nodules: unknown } };
     expect(stored.derived).toEqual(JSON.parse(JSON.stringify(want.derived)));
-    expect(stored.flags).toEqual(JSON.parse(JSON.stringify(want.flags)));
+    // Stored without each flag's citation and sentence (StoredFlag)...
+    expect(stored.flags).toEqual(JSON.parse(JSON.stringify(storedEvaluation(want).flags)));
+    expect(JSON.stringify(stored.flags)).not.toContain('"message"');
+    // ...and read back exactly as the engine wrote them.
+    expect((await storedReport(reportId)).evaluation.flags).toEqual(JSON.parse(JSON.stringify(want.flags)));
     expect(stored.assessments.nodules).toEqual(JSON.parse(JSON.stringify(want.assessments.nodules)));
     expect(row.findingsText).toBe(want.findings.join('\n'));
     expect(row.templateVersion).toBe(want.templateVersion);

@@ -2,6 +2,7 @@
 // import anywhere below this folder, so islands and server run the very same code.
 
 export { evaluate } from './evaluate/evaluate';
+export { flagMessage } from './evaluate/flags';
 export type * from './evaluate/types';
 export { HEIGHT_BOUNDS_CM, WEIGHT_BOUNDS_KG } from './evaluate/validate';
 export { CAUTIONS } from './cautions';

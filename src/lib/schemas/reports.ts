@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import type { EvaluationSuccess } from '../clinical';
+import { flagMessage, type EvaluationSuccess, type Flag, type ReferenceRange } from '../clinical';
 import type { ProbeKind } from '../exam-status';
 import type { ReportStatus } from '../report-status';
 import { measurementsSchema, noduleSchema } from './clinical';
@@ -92,13 +92,31 @@ export interface CommunicationDto {
   recordedAt: string;
 }
 
-/** What the server keeps of an evaluation (the engine's answer minus its echo of the inputs). */
-export type StoredEvaluation = Pick<EvaluationSuccess, 'derived' | 'flags' | 'findings' | 'assessments' | 'urgentPrompts' | 'algorithms' | 'patient' | 'options' | 'cautions'>;
+/** What a report carries of an evaluation (the engine's answer minus its echo of the inputs). */
+export type ReportEvaluation = Pick<EvaluationSuccess, 'derived' | 'flags' | 'findings' | 'assessments' | 'urgentPrompts' | 'algorithms' | 'patient' | 'options' | 'cautions'>;
+
+/**
+ * A flag as stored. One judged against a reference row leaves out what that row and its own parts
+ * say again: the row's citation (source, provenance, set version, found again by its id in the
+ * set the report names) and the sentence (made again by `flagMessage`). Those were two thirds of
+ * every save's JSON. A flag with no row (e.g. no range for the patient's age) is kept whole.
+ * Reports saved before this keep whole flags; both read the same.
+ */
+export type StoredFlag = Omit<Flag, 'source' | 'provenance' | 'referenceSetVersion' | 'message'> & Partial<Pick<Flag, 'source' | 'provenance' | 'referenceSetVersion' | 'message'>>;
+
+/** What the database keeps of an evaluation: a ReportEvaluation with stored flags. */
+export type StoredEvaluation = Omit<ReportEvaluation, 'flags'> & { flags: StoredFlag[] };
+
+function storedFlag(f: Flag): StoredFlag {
+  if (f.referenceId === null) return f;
+  const { source: _source, provenance: _provenance, referenceSetVersion: _set, message: _message, ...kept } = f;
+  return kept;
+}
 
 /** What is stored of an engine answer: the server's saves and the demo seed keep the same parts. */
 export const storedEvaluation = (e: EvaluationSuccess): StoredEvaluation => ({
   derived: e.derived,
-  flags: e.flags,
+  flags: e.flags.map(storedFlag),
   findings: e.findings,
   assessments: e.assessments,
   urgentPrompts: e.urgentPrompts,
@@ -107,6 +125,28 @@ export const storedEvaluation = (e: EvaluationSuccess): StoredEvaluation => ({
   options: e.options,
   cautions: e.cautions,
 });
+
+/**
+ * A stored evaluation as readers see it: each flag's citation from the rows of the report's
+ * reference set and its sentence made again, exactly as the engine wrote them.
+ */
+export function readEvaluation(e: StoredEvaluation, references: readonly Pick<ReferenceRange, 'id' | 'source' | 'provenance' | 'referenceSet'>[]): ReportEvaluation {
+  const byId = new Map(references.map((r) => [r.id, r]));
+  const flags = e.flags.map((f): Flag => {
+    if (f.message !== undefined && f.source !== undefined && f.provenance !== undefined && f.referenceSetVersion !== undefined) return f as Flag;
+    const row = f.referenceId === null ? undefined : byId.get(f.referenceId);
+    // A row missing from the set cannot happen for a report saved by this code (sets never change once stored).
+    const source = f.source ?? row?.source ?? 'reference row not found';
+    return {
+      ...f,
+      source,
+      provenance: f.provenance ?? row?.provenance ?? null,
+      referenceSetVersion: f.referenceSetVersion ?? row?.referenceSet ?? null,
+      message: f.message ?? (f.range === null ? `${f.label} ${f.display}` : flagMessage({ ...f, range: f.range, source })),
+    };
+  });
+  return { ...e, flags };
+}
 
 /** How many values are flagged low or high (the reading queue's count). */
 export const abnormalCount = (e: Pick<EvaluationSuccess, 'flags'>): number => e.flags.filter((f) => f.status === 'low' || f.status === 'high').length;
@@ -128,7 +168,7 @@ export interface ReportDto {
   weightKg: number | null;
   probeId: number | null;
   probeKind: ProbeKind | null;
-  evaluation: StoredEvaluation | null;
+  evaluation: ReportEvaluation | null;
   findingsText: string | null;
   abnormalCount: number;
   updatedAt: string;

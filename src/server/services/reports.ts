@@ -3,7 +3,7 @@ import { db } from '../../db/connection';
 import { Exam, ExamType, Patient, Probe, Referrer, Report, ReportAddendum, ReportCommunication, Room, Scanner, User } from '../../db/models';
 import { evaluate, getTemplate, missingRequired, REFERENCE_SET_VERSION, type EvaluationSuccess, type PriorExamInput, type ReferenceRange, type TemplateId, type UrgentRuleId } from '../../lib/clinical';
 import { canMoveExam } from '../../lib/exam-status';
-import { abnormalCount, storedEvaluation, type AddendumDto, type CommunicationDto, type DraftSavedDto, type MeasurementSources, type ReportContext, type ReportDto, type SaveDraftInput, type StoredEvaluation } from '../../lib/schemas/reports';
+import { abnormalCount, readEvaluation, storedEvaluation, type AddendumDto, type CommunicationDto, type DraftSavedDto, type MeasurementSources, type ReportContext, type ReportDto, type ReportEvaluation, type SaveDraftInput, type StoredEvaluation } from '../../lib/schemas/reports';
 import type { SessionUser } from '../../lib/session-user';
 import { ageOn, formatInstant, zonedDate } from '../../lib/time';
 import { HttpError, notFound, ruleBroken, stale } from '../http/errors';
@@ -13,7 +13,7 @@ import { LATEST_PRIOR_ID_SQL, priorInput } from './priors';
 import { referenceSet } from './reference-ranges';
 import { clinicProfile, disabledUrgentRules } from './settings';
 
-function toDto(r: Report, names: ReadonlyMap<number, string> = new Map(), added: { addenda: ReportAddendum[]; communications: ReportCommunication[] } = { addenda: [], communications: [] }): ReportDto {
+function toDto(r: Report, evaluation: ReportEvaluation | null, names: ReadonlyMap<number, string> = new Map(), added: { addenda: ReportAddendum[]; communications: ReportCommunication[] } = { addenda: [], communications: [] }): ReportDto {
   const name = (id: number | null | undefined) => (id == null ? null : (names.get(id) ?? null));
   const person = (id: number) => names.get(id) ?? 'a physician';
   return {
@@ -31,7 +31,7 @@ function toDto(r: Report, names: ReadonlyMap<number, string> = new Map(), added:
     weightKg: r.weightKg,
     probeId: r.probeId,
     probeKind: r.probeKind,
-    evaluation: (r.evaluation as StoredEvaluation | null) ?? null,
+    evaluation,
     findingsText: r.findingsText,
     abnormalCount: r.abnormalCount,
     updatedAt: r.updatedAt.toISOString(),
@@ -75,8 +75,17 @@ export async function dtoWithEditor(r: Report, transaction?: Transaction): Promi
           ReportCommunication.findAll({ where: { reportId: r.id }, order: [['communicatedAt', 'ASC'], ['id', 'ASC']], transaction }),
         ]);
   const ids = [...new Set([r.updatedBy, r.claimedBy, r.signedBy, ...addenda.map((a) => a.signedBy), ...communications.map((c) => c.recordedBy)].filter((id): id is number => typeof id === 'number'))];
-  const users = ids.length ? await User.findAll({ where: { id: ids }, attributes: ['id', 'displayName'], transaction }) : [];
-  return toDto(r, new Map(users.map((u) => [u.id, u.displayName])), { addenda, communications });
+  const [users, evaluation] = await Promise.all([
+    ids.length ? User.findAll({ where: { id: ids }, attributes: ['id', 'displayName'], transaction }) : [],
+    reportEvaluation(r),
+  ]);
+  return toDto(r, evaluation, new Map(users.map((u) => [u.id, u.displayName])), { addenda, communications });
+}
+
+/** The report's evaluation as readers see it (flags with their citations and sentences; see StoredFlag). */
+export async function reportEvaluation(r: Pick<Report, 'evaluation' | 'referenceSetVersion'>): Promise<ReportEvaluation | null> {
+  const stored = r.evaluation as StoredEvaluation | null;
+  return stored ? readEvaluation(stored, await referenceSet(r.referenceSetVersion)) : null;
 }
 
 
@@ -274,13 +283,15 @@ export async function saveDraft(actor: SessionUser, reportId: number, input: Sav
   const applied = await db().transaction(async (transaction) => {
     // What a correction changes is worth the extra read; the sonographer's autosave skips it.
     const before = needs === 'preliminary' ? await Report.findByPk(reportId, { transaction, lock: transaction.LOCK.UPDATE, attributes: ['id', 'measurements', 'nodules', 'heightCm', 'weightKg'] }) : null;
+    // Bound parameters go to the driver as they are; replacements would be escaped into the SQL
+    // text by Sequelize first, a character-by-character pass over ~20 KB of JSON on every save.
     const [, changed] = await db().query(
-      `UPDATE reports SET measurements = ?, measurement_sources = ?, nodules = ?, height_cm = ?, weight_kg = ?, probe_id = ?, probe_kind = ?, evaluation = ?,
-              findings_text = ?, abnormal_count = ?, template_version = ?, reference_set_version = ?, updated_by = ?,
-              version = version + 1, updated_at = ?
-        WHERE id = ? AND version = ? AND status = ?`,
+      `UPDATE reports SET measurements = $1, measurement_sources = $2, nodules = $3, height_cm = $4, weight_kg = $5, probe_id = $6, probe_kind = $7, evaluation = $8,
+              findings_text = $9, abnormal_count = $10, template_version = $11, reference_set_version = $12, updated_by = $13,
+              version = version + 1, updated_at = $14
+        WHERE id = $15 AND version = $16 AND status = $17`,
       {
-        replacements: [
+        bind: [
           JSON.stringify(input.measurements),
           JSON.stringify(keptSources(input)),
           JSON.stringify(input.nodules),

@@ -40,7 +40,6 @@ export function flagValue(valueCode: string, referenceCode: string, v: CheckedVa
   const r = adjusted.row;
   const c = classifyValue(r, v.value, v.unit);
   const range = rangeOf(r);
-  const who = SEX_WORD[r.sex] === '' ? '' : `, ${SEX_WORD[r.sex]}`;
   return {
     valueCode, referenceCode, label: v.label, value: v.value, unit: v.unit, display,
     status: c.status,
@@ -50,10 +49,20 @@ export function flagValue(valueCode: string, referenceCode: string, v: CheckedVa
     source: r.source,
     provenance: r.provenance,
     referenceSetVersion: r.referenceSet,
-    message: `${v.label} ${display}: ${verdict(c.status, c.grade)} (reference ${range.text}${who}; ${r.source})`,
+    message: flagMessage({ label: v.label, display, status: c.status, grade: c.grade, range, source: r.source }),
     note: r.note,
     adjustment: adjusted.note,
   };
+}
+
+/**
+ * The sentence of a flag judged against a reference row, made from the flag's own parts, e.g.
+ * "LVEF 60 %: normal (reference 52–72 %, men; Lang RM et al. …)". The server stores flags
+ * without it and makes it again with this when a report is read.
+ */
+export function flagMessage(f: Pick<Flag, 'label' | 'display' | 'status' | 'grade'> & { range: NonNullable<Flag['range']>; source: string }): string {
+  const who = SEX_WORD[f.range.sex] === '' ? '' : `, ${SEX_WORD[f.range.sex]}`;
+  return `${f.label} ${f.display}: ${verdict(f.status, f.grade)} (reference ${f.range.text}${who}; ${f.source})`;
 }
 
 /** Run every reference check of a template over the entered and derived values. */
