@@ -7,7 +7,7 @@
 import type { BenchFigure } from '../bench.ts';
 import { fullEchoInput } from '../../tests/unit/clinical/helpers.ts';
 import { addDays, zonedTimeToUtc } from '../../src/lib/time.ts';
-import { benchEnv, closedLoop, send, signIn, SECONDS, type BenchEnv } from './env.ts';
+import { benchEnv, closedLoop, send, signIn, SECONDS, WARM_UP_SECONDS, type BenchEnv } from './env.ts';
 
 const CONNECTIONS = 16;
 
@@ -57,7 +57,7 @@ export async function reportSaveBench(): Promise<BenchFigure[]> {
   // Each client owns one draft and carries its version from answer to answer, as the form does;
   // every save changes a value (LVIDd 5.0 ↔ 5.1 cm), so each one is a real re-evaluation and write.
   const versions = reports.map(() => 0);
-  console.log(`  (${CONNECTIONS} connections, ${SECONDS} s, each saving its own echo draft)`);
+  console.log(`  (${CONNECTIONS} connections, ${SECONDS} s after ${WARM_UP_SECONDS} s of warm-up, each saving its own echo draft)`);
   const saveNext = async (client: number) => {
     const res = await send(`${e.url}/api/reports/${reports[client]}/draft`, {
       method: 'PUT',

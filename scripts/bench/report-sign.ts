@@ -5,7 +5,7 @@
  * so none is refused.
  */
 import type { BenchFigure } from '../bench.ts';
-import { benchEnv, closedLoop, send, signIn, SECONDS } from './env.ts';
+import { benchEnv, closedLoop, send, signIn, SECONDS, WARM_UP_SECONDS } from './env.ts';
 
 const CONNECTIONS = 8;
 const REPORTS = 3000;
@@ -28,7 +28,7 @@ export async function reportSignBench(): Promise<BenchFigure[]> {
     .map(Number);
   const cookie = await signIn(e.url, 'reader@fernhollow.test');
   let next = 0;
-  console.log(`  (${CONNECTIONS} connections, ${SECONDS} s, ${ids.length} reports to sign, argon2id password check on each)`);
+  console.log(`  (${CONNECTIONS} connections, ${SECONDS} s after ${WARM_UP_SECONDS} s of warm-up, ${ids.length} reports to sign, argon2id password check on each)`);
   const result = await closedLoop(CONNECTIONS, async () => {
     const id = ids[next++];
     if (id === undefined) return false;
