@@ -133,16 +133,17 @@ export const storedEvaluation = (e: EvaluationSuccess): StoredEvaluation => ({
 export function readEvaluation(e: StoredEvaluation, references: readonly Pick<ReferenceRange, 'id' | 'source' | 'provenance' | 'referenceSet'>[]): ReportEvaluation {
   const byId = new Map(references.map((r) => [r.id, r]));
   const flags = e.flags.map((f): Flag => {
-    if (f.message !== undefined && f.source !== undefined && f.provenance !== undefined && f.referenceSetVersion !== undefined) return f as Flag;
-    const row = f.referenceId === null ? undefined : byId.get(f.referenceId);
+    // Stored whole: a flag with no reference row, or one saved before flags were stored lean.
+    if (f.message !== undefined) return f as Flag;
     // A row missing from the set cannot happen for a report saved by this code (sets never change once stored).
-    const source = f.source ?? row?.source ?? 'reference row not found';
+    const row = f.referenceId === null ? undefined : byId.get(f.referenceId);
+    const source = row?.source ?? 'reference row not found';
     return {
       ...f,
       source,
-      provenance: f.provenance ?? row?.provenance ?? null,
-      referenceSetVersion: f.referenceSetVersion ?? row?.referenceSet ?? null,
-      message: f.message ?? (f.range === null ? `${f.label} ${f.display}` : flagMessage({ ...f, range: f.range, source })),
+      provenance: row?.provenance ?? null,
+      referenceSetVersion: row?.referenceSet ?? null,
+      message: f.range === null ? `${f.label} ${f.display}` : flagMessage({ ...f, range: f.range, source }),
     };
   });
   return { ...e, flags };

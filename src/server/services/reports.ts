@@ -83,7 +83,7 @@ export async function dtoWithEditor(r: Report, transaction?: Transaction): Promi
 }
 
 /** The report's evaluation as readers see it (flags with their citations and sentences; see StoredFlag). */
-export async function reportEvaluation(r: Pick<Report, 'evaluation' | 'referenceSetVersion'>): Promise<ReportEvaluation | null> {
+async function reportEvaluation(r: Pick<Report, 'evaluation' | 'referenceSetVersion'>): Promise<ReportEvaluation | null> {
   const stored = r.evaluation as StoredEvaluation | null;
   return stored ? readEvaluation(stored, await referenceSet(r.referenceSetVersion)) : null;
 }
